@@ -1,0 +1,312 @@
+package schema
+
+import (
+	"bytes"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"math"
+	"sort"
+	"strconv"
+	"strings"
+
+	sjs "github.com/santhosh-tekuri/jsonschema/v6"
+	"github.com/santhosh-tekuri/jsonschema/v6/kind"
+	"golang.org/x/text/language"
+	"golang.org/x/text/message"
+)
+
+// Limits on the size of a project document. A stand-alone system with more
+// than a few hundred appliances is a mistake in the input, not a design.
+const (
+	MaxDocumentBytes = 4 << 20 // 4 MiB
+	MaxLoads         = 2000
+	MaxWindows       = 24
+	MaxHorizonPoints = 720
+)
+
+// Problem is one thing wrong with a document, at a JSON path such as
+// `loads[2].power_w`.
+type Problem struct {
+	Path    string
+	Message string
+}
+
+func (p Problem) String() string {
+	if p.Path == "" {
+		return p.Message
+	}
+	return p.Path + ": " + p.Message
+}
+
+// Problems is every problem found in one pass; it is an error.
+type Problems []Problem
+
+func (ps Problems) Error() string {
+	lines := make([]string, len(ps))
+	for i, p := range ps {
+		lines[i] = p.String()
+	}
+	return strings.Join(lines, "\n")
+}
+
+// Decode decodes a project document, checks it against the schema, applies
+// the defaults and checks its physical sense. On any problem it returns
+// Problems (every problem found, in document order where possible).
+func Decode(data []byte) (*Project, error) {
+	if len(data) > MaxDocumentBytes {
+		return nil, Problems{{Message: fmt.Sprintf("document is %.1f MB; the limit is %d MB (a project describes one site; split a fleet into one file per site)", float64(len(data))/(1<<20), MaxDocumentBytes>>20)}}
+	}
+	if ps := syntax(data); ps != nil {
+		return nil, ps
+	}
+	if n := countLoads(data); n > MaxLoads {
+		return nil, Problems{{Path: "loads", Message: fmt.Sprintf("has %d entries; the limit is %d", n, MaxLoads)}}
+	}
+	if ps := structural(data); len(ps) > 0 {
+		return nil, ps
+	}
+	var p Project
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.DisallowUnknownFields()
+	if err := dec.Decode(&p); err != nil {
+		return nil, Problems{{Message: decodeMessage(err)}}
+	}
+	ApplyDefaults(&p)
+	if ps := Check(&p); len(ps) > 0 {
+		return nil, ps
+	}
+	return &p, nil
+}
+
+// syntax reports a JSON syntax error with its line and column.
+func syntax(data []byte) Problems {
+	var v any
+	dec := json.NewDecoder(bytes.NewReader(data))
+	err := dec.Decode(&v)
+	if err == nil {
+		if _, err2 := dec.Token(); err2 == nil {
+			line, col := lineCol(data, dec.InputOffset())
+			return Problems{{Message: fmt.Sprintf("line %d, column %d: unexpected data after the document", line, col)}}
+		}
+		if _, ok := v.(map[string]any); !ok {
+			return Problems{{Message: "the document must be a JSON object"}}
+		}
+		return nil
+	}
+	var se *json.SyntaxError
+	if errors.As(err, &se) {
+		line, col := lineCol(data, se.Offset)
+		return Problems{{Message: fmt.Sprintf("line %d, column %d: JSON syntax: %s", line, col, se.Error())}}
+	}
+	if errors.Is(err, io.ErrUnexpectedEOF) || errors.Is(err, io.EOF) {
+		line, col := lineCol(data, int64(len(data)))
+		return Problems{{Message: fmt.Sprintf("line %d, column %d: the document ends early (truncated file?)", line, col)}}
+	}
+	return Problems{{Message: "JSON: " + err.Error()}}
+}
+
+func lineCol(data []byte, off int64) (int, int) {
+	if off > int64(len(data)) {
+		off = int64(len(data))
+	}
+	line, col := 1, 1
+	for _, b := range data[:off] {
+		if b == '\n' {
+			line++
+			col = 1
+		} else {
+			col++
+		}
+	}
+	return line, col
+}
+
+// countLoads counts the entries of the top-level "loads" array without
+// decoding them, so a huge inventory is refused quickly.
+func countLoads(data []byte) int {
+	var top map[string]json.RawMessage
+	if json.Unmarshal(data, &top) != nil {
+		return 0
+	}
+	raw, ok := top["loads"]
+	if !ok {
+		return 0
+	}
+	dec := json.NewDecoder(bytes.NewReader(raw))
+	if t, err := dec.Token(); err != nil || t != json.Delim('[') {
+		return 0
+	}
+	n := 0
+	for dec.More() {
+		var skip json.RawMessage
+		if dec.Decode(&skip) != nil {
+			break
+		}
+		n++
+	}
+	return n
+}
+
+func decodeMessage(err error) string {
+	var te *json.UnmarshalTypeError
+	if errors.As(err, &te) {
+		return fmt.Sprintf("%s: must be %s, got %s", te.Field, te.Type.String(), te.Value)
+	}
+	return err.Error()
+}
+
+// structural checks the document against the generated JSON Schema.
+func structural(data []byte) Problems {
+	c, err := compileOnce()
+	if err != nil {
+		return Problems{{Message: "internal: schema: " + err.Error()}}
+	}
+	inst, err := sjs.UnmarshalJSON(bytes.NewReader(data))
+	if err != nil {
+		return Problems{{Message: "JSON: " + err.Error()}}
+	}
+	err = c.schema.Validate(inst)
+	if err == nil {
+		return nil
+	}
+	var ve *sjs.ValidationError
+	if !errors.As(err, &ve) {
+		return Problems{{Message: err.Error()}}
+	}
+	pr := message.NewPrinter(language.English)
+	var out Problems
+	var walk func(e *sjs.ValidationError)
+	walk = func(e *sjs.ValidationError) {
+		if len(e.Causes) > 0 {
+			if _, isOneOf := e.ErrorKind.(*kind.OneOf); !isOneOf {
+				for _, c2 := range e.Causes {
+					walk(c2)
+				}
+				return
+			}
+		}
+		out = append(out, leafProblems(c.tree, e, pr)...)
+	}
+	walk(ve)
+	sort.SliceStable(out, func(i, j int) bool { return out[i].Path < out[j].Path })
+	return dedupe(out)
+}
+
+func dedupe(ps Problems) Problems {
+	seen := map[string]bool{}
+	var out Problems
+	for _, p := range ps {
+		k := p.String()
+		if !seen[k] {
+			seen[k] = true
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+func leafProblems(tree map[string]any, e *sjs.ValidationError, pr *message.Printer) Problems {
+	path := JoinPath(e.InstanceLocation)
+	switch k := e.ErrorKind.(type) {
+	case *kind.AdditionalProperties:
+		known := knownKeys(tree, e.InstanceLocation)
+		var ps Problems
+		for _, prop := range k.Properties {
+			msg := "unknown key"
+			if s := closest(prop, known); s != "" {
+				msg += fmt.Sprintf(" (did you mean %q?)", s)
+			}
+			ps = append(ps, Problem{Path: JoinPath(append(append([]string{}, e.InstanceLocation...), prop)), Message: msg})
+		}
+		return ps
+	case *kind.Required:
+		var ps Problems
+		for _, m := range k.Missing {
+			ps = append(ps, Problem{Path: JoinPath(append(append([]string{}, e.InstanceLocation...), m)), Message: "is required"})
+		}
+		return ps
+	case *kind.Type:
+		return Problems{{Path: path, Message: fmt.Sprintf("must be %s, got %s", strings.Join(k.Want, " or "), k.Got)}}
+	case *kind.Enum:
+		want := make([]string, len(k.Want))
+		for i, w := range k.Want {
+			want[i] = fmt.Sprint(w)
+		}
+		return Problems{{Path: path, Message: fmt.Sprintf("must be one of %s, got %v", strings.Join(want, ", "), k.Got)}}
+	case *kind.Minimum:
+		w, _ := k.Want.Float64()
+		g, _ := k.Got.Float64()
+		return Problems{{Path: path, Message: fmt.Sprintf("must be at least %g, got %g", w, g)}}
+	case *kind.Maximum:
+		w, _ := k.Want.Float64()
+		g, _ := k.Got.Float64()
+		return Problems{{Path: path, Message: fmt.Sprintf("must be at most %g, got %g", w, g)}}
+	case *kind.OneOf:
+		return Problems{{Path: path, Message: "must be a number or one of the words auto, optimise"}}
+	default:
+		return Problems{{Path: path, Message: e.ErrorKind.LocalizedString(pr)}}
+	}
+}
+
+// JoinPath writes an instance location as `loads[2].power_w`.
+func JoinPath(loc []string) string {
+	var b strings.Builder
+	for _, s := range loc {
+		if _, err := strconv.Atoi(s); err == nil {
+			b.WriteString("[" + s + "]")
+			continue
+		}
+		if b.Len() > 0 {
+			b.WriteByte('.')
+		}
+		b.WriteString(s)
+	}
+	return b.String()
+}
+
+// closest returns the known key nearest to s by edit distance, when it is
+// near enough to be a likely typo.
+func closest(s string, known []string) string {
+	sort.Strings(known)
+	best, bestD := "", math.MaxInt
+	for _, k := range known {
+		d := levenshtein(s, k)
+		if d < bestD {
+			best, bestD = k, d
+		}
+	}
+	limit := max(2, len(s)/3)
+	if bestD <= limit {
+		return best
+	}
+	// a known key that contains the given one or is contained in it
+	for _, k := range known {
+		if len(s) >= 3 && (strings.Contains(k, s) || strings.Contains(s, k)) {
+			return k
+		}
+	}
+	return ""
+}
+
+func levenshtein(a, b string) int {
+	ra, rb := []rune(a), []rune(b)
+	prev := make([]int, len(rb)+1)
+	cur := make([]int, len(rb)+1)
+	for j := range prev {
+		prev[j] = j
+	}
+	for i := 1; i <= len(ra); i++ {
+		cur[0] = i
+		for j := 1; j <= len(rb); j++ {
+			cost := 1
+			if ra[i-1] == rb[j-1] {
+				cost = 0
+			}
+			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
+		}
+		prev, cur = cur, prev
+	}
+	return prev[len(rb)]
+}
