@@ -160,7 +160,7 @@ func Check(p *Project) Problems {
 		num("battery.chemistry_overrides.discharge_efficiency", o.DischargeEfficiency, 0.5, 1, false)
 		num("battery.chemistry_overrides.self_discharge_per_month", o.SelfDischargePerMonth, 0, 0.5, false)
 		num("battery.chemistry_overrides.calendar_life_years", o.CalendarLifeYears, 0, 50, true)
-		num("battery.chemistry_overrides.charge_min_c", o.ChargeMinC, -40, 20, false)
+		num("battery.chemistry_overrides.charge_min_temp_c", o.ChargeMinTempC, -40, 20, false)
 		for i, cp := range o.CycleLife {
 			checkRange(add, fmt.Sprintf("battery.chemistry_overrides.cycle_life[%d].dod", i), cp.DoD, 0, 1, true)
 			if !(cp.Cycles > 0) {

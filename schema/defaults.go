@@ -226,8 +226,8 @@ func ApplyDefaults(p *Project) {
 // ChemistryFigures are the built-in figures of a battery chemistry that
 // ApplyChemistryDefaults writes into the document.
 type ChemistryFigures struct {
-	MaxDoD, ChargeEfficiency, DischargeEfficiency, SelfDischargePerMonth, CalendarLifeYears, ChargeMinC, RatedHours, PeukertExponent float64
-	CycleLife                                                                                                                      []CyclePoint
+	MaxDoD, ChargeEfficiency, DischargeEfficiency, SelfDischargePerMonth, CalendarLifeYears, ChargeMinTempC, RatedHours, PeukertExponent float64
+	CycleLife                                                                                                                            []CyclePoint
 }
 
 // ApplyChemistryDefaults fills the battery figures that depend on the
@@ -245,7 +245,7 @@ func ApplyChemistryDefaults(p *Project, c ChemistryFigures) {
 	setF(&o.DischargeEfficiency, c.DischargeEfficiency)
 	setF(&o.SelfDischargePerMonth, c.SelfDischargePerMonth)
 	setF(&o.CalendarLifeYears, c.CalendarLifeYears)
-	setF(&o.ChargeMinC, c.ChargeMinC)
+	setF(&o.ChargeMinTempC, c.ChargeMinTempC)
 	if len(o.CycleLife) == 0 {
 		o.CycleLife = append([]CyclePoint(nil), c.CycleLife...)
 	}

@@ -153,7 +153,7 @@ type Chemistry struct {
 	SelfDischargePerMonth *float64     `json:"self_discharge_per_month,omitempty" jsonschema:"description=Self-discharge as a fraction of stored energy per month"`
 	CalendarLifeYears     *float64     `json:"calendar_life_years,omitempty" jsonschema:"description=Calendar life in years"`
 	CycleLife             []CyclePoint `json:"cycle_life,omitempty" jsonschema:"description=Cycles to end of life against depth of discharge"`
-	ChargeMinC            *float64     `json:"charge_min_c,omitempty" jsonschema:"description=Lowest temperature at which the bank may be charged in °C"`
+	ChargeMinTempC        *float64     `json:"charge_min_temp_c,omitempty" jsonschema:"description=Lowest temperature at which the bank may be charged in °C"`
 }
 
 // CyclePoint is one point of a cycle-life curve.

@@ -51,10 +51,19 @@ func (ps Problems) Error() string {
 	return strings.Join(lines, "\n")
 }
 
+// DecodeOptions change how a document is checked.
+type DecodeOptions struct {
+	// WeatherFile stands in for the site's monthly means (the --weather flag).
+	WeatherFile string
+}
+
 // Decode decodes a project document, checks it against the schema, applies
 // the defaults and checks its physical sense. On any problem it returns
 // Problems (every problem found, in document order where possible).
-func Decode(data []byte) (*Project, error) {
+func Decode(data []byte) (*Project, error) { return DecodeWith(data, DecodeOptions{}) }
+
+// DecodeWith is Decode with options.
+func DecodeWith(data []byte, opt DecodeOptions) (*Project, error) {
 	if len(data) > MaxDocumentBytes {
 		return nil, Problems{{Message: fmt.Sprintf("document is %.1f MB; the limit is %d MB (a project describes one site; split a fleet into one file per site)", float64(len(data))/(1<<20), MaxDocumentBytes>>20)}}
 	}
@@ -72,6 +81,9 @@ func Decode(data []byte) (*Project, error) {
 	dec.DisallowUnknownFields()
 	if err := dec.Decode(&p); err != nil {
 		return nil, Problems{{Message: decodeMessage(err)}}
+	}
+	if opt.WeatherFile != "" {
+		p.Site.WeatherFile = opt.WeatherFile
 	}
 	ApplyDefaults(&p)
 	if ps := Check(&p); len(ps) > 0 {

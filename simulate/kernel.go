@@ -1,0 +1,333 @@
+// Package simulate runs the energy balance of a stand-alone PV system: an
+// hourly kernel over precomputed PV and demand series, statistics over many
+// simulated years, and the reliability (isoreliability) sizing curves.
+package simulate
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"solstand/battery"
+)
+
+// HoursPerDay is the number of hourly steps in one simulated day.
+const HoursPerDay = 24
+
+// ledgerRelTol is the relative tolerance to which the ledger identities
+// must close (CONTRACT.md).
+const ledgerRelTol = 1e-9
+
+// Demand is the DC-side load of the mean day of each calendar month, by
+// clock hour: index [month−1][hour], hour h covering h:00–(h+1):00.
+// Inverter losses are already included in CriticalWh and NonCriticalWh;
+// InverterLossWh is the part of that demand which is inverter loss, used
+// only to report the inverter-loss share of what was served.
+type Demand struct {
+	CriticalWh     [12][24]float64
+	NonCriticalWh  [12][24]float64
+	InverterLossWh [12][24]float64
+}
+
+// DailyWh returns the DC-side demand (critical plus non-critical) of the
+// mean day of month (1..12); 0 for a month out of range.
+func (d *Demand) DailyWh(month int) float64 {
+	if d == nil || month < 1 || month > 12 {
+		return 0
+	}
+	s := 0.0
+	for h := 0; h < HoursPerDay; h++ {
+		s += d.CriticalWh[month-1][h] + d.NonCriticalWh[month-1][h]
+	}
+	return s
+}
+
+// Params are the controller figures the kernel needs.
+type Params struct {
+	// ControllerEfficiency is the fraction of the PV input the charge
+	// controller passes on (clamped to 0..1; 0 or NaN: nothing passes).
+	ControllerEfficiency float64
+	// ControllerMaxOutWh is the largest controller output in one hourly
+	// step; 0 (or negative, NaN) = unlimited.
+	ControllerMaxOutWh float64
+}
+
+// Ledger is the energy ledger of CONTRACT.md over one or many RunDays calls,
+// all DC-side, in Wh.
+type Ledger struct {
+	PVAvailableWh  float64 `json:"pv_available_wh"`
+	LoadServedWh   float64 `json:"load_served_wh"`
+	UnmetWh        float64 `json:"unmet_wh"`
+	DumpedWh       float64 `json:"dumped_wh"`
+	LossesWh       float64 `json:"losses_wh"`
+	BatteryStartWh float64 `json:"battery_start_wh"`
+	BatteryEndWh   float64 `json:"battery_end_wh"`
+	DemandWh       float64 `json:"demand_wh"`
+}
+
+// Check verifies both identities of the ledger to 1e-9 relative:
+// PVAvailable + BatteryStart = LoadServed + Losses + Dumped + BatteryEnd,
+// and LoadServed + Unmet = Demand. It also rejects non-finite entries.
+func (l Ledger) Check() error {
+	for _, v := range [...]float64{l.PVAvailableWh, l.LoadServedWh, l.UnmetWh, l.DumpedWh, l.LossesWh, l.BatteryStartWh, l.BatteryEndWh, l.DemandWh} {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return errors.New("ledger: non-finite entry")
+		}
+	}
+	in := l.PVAvailableWh + l.BatteryStartWh
+	out := l.LoadServedWh + l.LossesWh + l.DumpedWh + l.BatteryEndWh
+	if !closes(in, out) {
+		return fmt.Errorf("ledger: energy does not close: pv available + battery start = %.12g Wh, served + losses + dumped + battery end = %.12g Wh", in, out)
+	}
+	if !closes(l.LoadServedWh+l.UnmetWh, l.DemandWh) {
+		return fmt.Errorf("ledger: demand does not close: served + unmet = %.12g Wh, demand = %.12g Wh", l.LoadServedWh+l.UnmetWh, l.DemandWh)
+	}
+	return nil
+}
+
+// Plus returns the ledger of two independent runs taken together (every
+// entry summed); both identities carry over to the sum.
+func (l Ledger) Plus(o Ledger) Ledger {
+	return Ledger{
+		PVAvailableWh:  l.PVAvailableWh + o.PVAvailableWh,
+		LoadServedWh:   l.LoadServedWh + o.LoadServedWh,
+		UnmetWh:        l.UnmetWh + o.UnmetWh,
+		DumpedWh:       l.DumpedWh + o.DumpedWh,
+		LossesWh:       l.LossesWh + o.LossesWh,
+		BatteryStartWh: l.BatteryStartWh + o.BatteryStartWh,
+		BatteryEndWh:   l.BatteryEndWh + o.BatteryEndWh,
+		DemandWh:       l.DemandWh + o.DemandWh,
+	}
+}
+
+// closes reports whether a and b agree to ledgerRelTol relative.
+func closes(a, b float64) bool {
+	scale := max(math.Abs(a), math.Abs(b))
+	return math.Abs(a-b) <= ledgerRelTol*scale
+}
+
+// Day is the summary of one simulated day (24 hourly steps). Energies in Wh,
+// DC side; states of charge are fractions of the battery's CapacityWh at
+// the end of each hour (0 when there is no battery).
+type Day struct {
+	Month int8 // 1..12
+
+	PVAvailableWh float64 // array DC output before the controller
+	// PVUsedWh is the energy the controller drew from the array
+	// (output / efficiency); PVAvailableWh − PVUsedWh is dumped.
+	PVUsedWh            float64
+	DemandWh            float64
+	ServedCriticalWh    float64 // direct from PV plus from the battery
+	ServedNonCriticalWh float64
+	UnmetWh             float64
+	DumpedWh            float64 // PV not drawn: battery full, loads met, or clipped by the controller
+	// InverterLossWh is the inverter-loss share of what was served: each
+	// hour's InverterLossWh times the served fraction of that hour's demand.
+	InverterLossWh   float64
+	ControllerLossWh float64 // drawn − output
+	BatteryLossWh    float64 // charge + discharge + self-discharge losses
+	SOCMin           float64
+	SOCMax           float64
+	SOCEnd           float64
+	SOCMean          float64 // mean of the 24 hour-end values
+	ChargeWh         float64 // accepted by the battery at its terminals
+	DischargeWh      float64 // delivered by the battery at its terminals
+	UnmetHours       int16   // hours with unmet load (above 1e-9 of the hour's demand)
+}
+
+// ServedWh is the load served on the day (critical plus non-critical).
+func (d *Day) ServedWh() float64 { return d.ServedCriticalWh + d.ServedNonCriticalWh }
+
+// RunDays simulates len(dayMonth) days of 24 hourly steps and returns the
+// number of days simulated.
+//
+// pvUnitWh holds 24 values per day: the array's DC output per unit of
+// scale in each hour (pv_available = scale × pvUnitWh[h]; negative and NaN
+// values count as 0). dayMonth[d] is the calendar month (1..12) of day d,
+// which selects the demand of that month's mean day. RunDays updates m (the
+// battery) and led in place, writes one Day per day into days and, when soc
+// is not nil, the state of charge at the end of each hour into soc.
+//
+// In each hour the controller passes out = min(drawn × efficiency,
+// ControllerMaxOutWh); the output serves critical loads first, then
+// non-critical ones, and the surplus is offered to m.Charge. The controller
+// draws from the array only what it passes on (drawn = output / efficiency);
+// the rest of the available PV, including what the output limit clips, is
+// dumped. The remaining load is asked from m.Discharge, then
+// m.SelfDischarge(1) applies. Losses = controller loss + battery charge,
+// discharge and self-discharge losses.
+//
+// A zero Ledger starts afresh (BatteryStartWh is set to m.EnergyWh); a
+// ledger carried over from an earlier RunDays call continues it, which requires m to
+// be the same battery carried over too.
+//
+// RunDays never panics on input and does not allocate. It stops early (and
+// says so by the count it returns) at the first month out of 1..12, or when
+// pvUnitWh, days or a non-nil soc is too short; with a nil d, p, m or led it
+// does nothing.
+func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *Params, m *battery.Model, led *Ledger, days []Day, soc []float32) int {
+	if d == nil || p == nil || m == nil || led == nil {
+		return 0
+	}
+	n := len(dayMonth)
+	n = min(n, len(pvUnitWh)/HoursPerDay, len(days))
+	writeSOC := soc != nil
+	if writeSOC {
+		n = min(n, len(soc)/HoursPerDay)
+	}
+
+	eff := p.ControllerEfficiency
+	if !(eff > 0) {
+		eff = 0
+	} else if eff > 1 {
+		eff = 1
+	}
+	invEff := 0.0
+	if eff > 0 {
+		invEff = 1 / eff
+	}
+	maxOut := p.ControllerMaxOutWh
+	if !(maxOut > 0) {
+		maxOut = math.Inf(1)
+	}
+	if !(scale > 0) || math.IsInf(scale, 0) {
+		scale = 0
+	}
+
+	// Flat per-month, per-hour tables, sanitised once per call.
+	var crit, nonc, invFrac [12 * HoursPerDay]float64
+	var dayDemand [12]float64
+	for mo := 0; mo < 12; mo++ {
+		for h := 0; h < HoursPerDay; h++ {
+			i := mo*HoursPerDay + h
+			c, nc, inv := d.CriticalWh[mo][h], d.NonCriticalWh[mo][h], d.InverterLossWh[mo][h]
+			if !(c > 0) || math.IsInf(c, 0) {
+				c = 0
+			}
+			if !(nc > 0) || math.IsInf(nc, 0) {
+				nc = 0
+			}
+			crit[i], nonc[i] = c, nc
+			dayDemand[mo] += c + nc
+			if dem := c + nc; dem > 0 && inv > 0 && !math.IsInf(inv, 0) {
+				invFrac[i] = min(inv, dem) / dem
+			}
+		}
+	}
+
+	if led.isZero() {
+		led.BatteryStartWh = m.EnergyWh
+	}
+	done := 0
+	for di := 0; di < n; di++ {
+		mo := dayMonth[di]
+		if mo < 1 || mo > 12 {
+			break
+		}
+		base := int(mo-1) * HoursPerDay
+		pvDay := pvUnitWh[di*HoursPerDay : di*HoursPerDay+HoursPerDay]
+		cDay := crit[base : base+HoursPerDay]
+		nDay := nonc[base : base+HoursPerDay]
+		fDay := invFrac[base : base+HoursPerDay]
+
+		var pvAvail, pvUsed, servedC, servedN, invLoss, outSum, batLoss, chg, dis, socSum float64
+		socMin, socMax, s := math.Inf(1), math.Inf(-1), 0.0
+		var unmetHours int16
+		for h := 0; h < HoursPerDay; h++ {
+			pv := scale * pvDay[h]
+			if !(pv > 0 && pv <= math.MaxFloat64) { // NaN, negative, +Inf
+				pv = 0
+			}
+			dc, dn := cDay[h], nDay[h]
+			var sc, sn, used, out, lossB float64
+			if pv > 0 && eff > 0 {
+				avail := min(pv*eff, maxOut)
+				sc = min(dc, avail)
+				sn = min(dn, avail-sc)
+				out = sc + sn
+				if rem := avail - out; rem > 0 {
+					acc, loss := m.Charge(rem, 1)
+					if acc > 0 {
+						out += acc
+						chg += acc
+						lossB += loss
+					}
+				}
+				used = out * invEff
+				if used > pv {
+					used = pv
+				}
+			}
+			if rc, rn := dc-sc, dn-sn; rc > 0 || rn > 0 {
+				bc, bn, loss := m.Discharge(rc, rn, 1)
+				sc += bc
+				sn += bn
+				dis += bc + bn
+				lossB += loss
+			}
+			lossB += m.SelfDischarge(1)
+
+			hd := dc + dn
+			served := sc + sn
+			u := hd - served
+			if u > ledgerRelTol*hd {
+				unmetHours++
+			}
+			pvAvail += pv
+			pvUsed += used
+			outSum += out
+			servedC += sc
+			servedN += sn
+			invLoss += fDay[h] * served
+			batLoss += lossB
+
+			s = m.SOC()
+			socSum += s
+			if s < socMin {
+				socMin = s
+			}
+			if s > socMax {
+				socMax = s
+			}
+			if writeSOC {
+				soc[di*HoursPerDay+h] = float32(s)
+			}
+		}
+		demand := dayDemand[mo-1]
+		unmet := demand - (servedC + servedN)
+		dumped := pvAvail - pvUsed
+		ctrlLoss := pvUsed - outSum
+		days[di] = Day{
+			Month:               mo,
+			PVAvailableWh:       pvAvail,
+			PVUsedWh:            pvUsed,
+			DemandWh:            demand,
+			ServedCriticalWh:    servedC,
+			ServedNonCriticalWh: servedN,
+			UnmetWh:             unmet,
+			DumpedWh:            dumped,
+			InverterLossWh:      invLoss,
+			ControllerLossWh:    ctrlLoss,
+			BatteryLossWh:       batLoss,
+			SOCMin:              socMin,
+			SOCMax:              socMax,
+			SOCEnd:              s,
+			SOCMean:             socSum / HoursPerDay,
+			ChargeWh:            chg,
+			DischargeWh:         dis,
+			UnmetHours:          unmetHours,
+		}
+		led.PVAvailableWh += pvAvail
+		led.LoadServedWh += servedC + servedN
+		led.UnmetWh += unmet
+		led.DumpedWh += dumped
+		led.LossesWh += ctrlLoss + batLoss
+		led.DemandWh += demand
+		done++
+	}
+	led.BatteryEndWh = m.EnergyWh
+	return done
+}
+
+// isZero reports whether no RunDays call has written to the ledger yet.
+func (l *Ledger) isZero() bool { return *l == Ledger{} }

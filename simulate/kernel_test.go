@@ -1,0 +1,625 @@
+package simulate
+
+import (
+	"math"
+	"math/rand/v2"
+	"testing"
+
+	"solstand/battery"
+)
+
+// All inputs below are invented demo scenarios; every check is by
+// construction (energy conservation, or arithmetic on the scenario stated
+// beside the check), none against an outside value.
+
+// demoYear returns 365 days of months and an hourly PV-per-unit series: a
+// half-sine day from 06:00 to 18:00 with a peak of 0.8 Wh per unit, scaled
+// each day by a random factor in [0.1, 1.3) (fixed seed).
+func demoYear(seed uint64) ([]int8, []float64) {
+	r := rand.New(rand.NewPCG(seed, 7))
+	dm := make([]int8, 365)
+	pv := make([]float64, 365*24)
+	lengths := [12]int{31, 28, 31, 30, 31, 30, 31, 31, 30, 31, 30, 31}
+	d := 0
+	for mo, n := range lengths {
+		for i := 0; i < n; i++ {
+			dm[d] = int8(mo + 1)
+			k := 0.1 + 1.2*r.Float64()
+			for h := 6; h < 18; h++ {
+				pv[d*24+h] = k * 0.8 * math.Sin(math.Pi*(float64(h-6)+0.5)/12)
+			}
+			d++
+		}
+	}
+	return dm, pv
+}
+
+// demoDemand: a 40 W critical load all day, 100 W of non-critical lights
+// 18:00–22:00, inverter loss 10 % of each hour's demand.
+func demoDemand() *Demand {
+	var d Demand
+	for mo := 0; mo < 12; mo++ {
+		for h := 0; h < 24; h++ {
+			d.CriticalWh[mo][h] = 40
+			if h >= 18 && h < 22 {
+				d.NonCriticalWh[mo][h] = 100
+			}
+			d.InverterLossWh[mo][h] = 0.1 * (d.CriticalWh[mo][h] + d.NonCriticalWh[mo][h])
+		}
+	}
+	return &d
+}
+
+// demoBattery: a lead-acid-like bank of capacityWh, half full, 50 % usable,
+// reconnect at 60 %, knee at 85 %.
+func demoBattery(capacityWh float64) battery.Model {
+	return battery.Model{
+		CapacityWh:           capacityWh,
+		EnergyWh:             0.5 * capacityWh,
+		MinWh:                0.5 * capacityWh,
+		ReconnectWh:          0.6 * capacityWh,
+		ChargeEff:            0.9,
+		DischargeEff:         0.95,
+		SelfDischargePerHour: 0.03 / 730,
+		KneeWh:               0.85 * capacityWh,
+	}
+}
+
+func noBattery() battery.Model { return battery.Model{ChargeEff: 0.9, DischargeEff: 0.95} }
+
+func simulateYears(t testing.TB, years int, scale float64, m battery.Model, p Params) (Ledger, []Day) {
+	t.Helper()
+	d := demoDemand()
+	var led Ledger
+	var all []Day
+	for y := 0; y < years; y++ {
+		dm, pv := demoYear(uint64(y + 1))
+		days := make([]Day, len(dm))
+		if n := RunDays(pv, scale, dm, d, &p, &m, &led, days, nil); n != len(dm) {
+			t.Fatalf("RunDays simulated %d of %d days", n, len(dm))
+		}
+		all = append(all, days...)
+	}
+	return led, all
+}
+
+func TestLedgerCheck(t *testing.T) {
+	tests := []struct {
+		name string
+		l    Ledger
+		ok   bool
+	}{
+		{"zero", Ledger{}, true},
+		// 100 + 50 = 60 + 10 + 20 + 60; 60 + 40 = 100 (arithmetic by hand)
+		{"closes", Ledger{PVAvailableWh: 100, BatteryStartWh: 50, LoadServedWh: 60, LossesWh: 10, DumpedWh: 20, BatteryEndWh: 60, UnmetWh: 40, DemandWh: 100}, true},
+		{"energy off by 1e-6", Ledger{PVAvailableWh: 100, BatteryStartWh: 50, LoadServedWh: 60, LossesWh: 10, DumpedWh: 20, BatteryEndWh: 60.000001, UnmetWh: 40, DemandWh: 100}, false},
+		{"within 1e-10", Ledger{PVAvailableWh: 100, BatteryStartWh: 50, LoadServedWh: 60, LossesWh: 10, DumpedWh: 20, BatteryEndWh: 60 + 1e-9, UnmetWh: 40, DemandWh: 100}, true},
+		{"demand off", Ledger{PVAvailableWh: 60, LoadServedWh: 60, UnmetWh: 41, DemandWh: 100}, false},
+		{"nan", Ledger{PVAvailableWh: math.NaN()}, false},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			if err := tc.l.Check(); (err == nil) != tc.ok {
+				t.Fatalf("Check() = %v, want ok=%v", err, tc.ok)
+			}
+			if err := tc.l.Plus(tc.l).Check(); (err == nil) != tc.ok {
+				t.Fatalf("Plus().Check() = %v, want ok=%v", err, tc.ok)
+			}
+		})
+	}
+}
+
+// TestLedgerClosesRandom is the property test of the issue: on random PV,
+// demand, controller and battery figures (fixed seed) both identities close
+// to 1e-9 relative, and every day's figures are consistent with the
+// ledger.
+func TestLedgerClosesRandom(t *testing.T) {
+	r := rand.New(rand.NewPCG(2026, 6))
+	for trial := 0; trial < 300; trial++ {
+		var d Demand
+		for mo := 0; mo < 12; mo++ {
+			for h := 0; h < 24; h++ {
+				d.CriticalWh[mo][h] = 200 * r.Float64() * float64(r.IntN(2))
+				d.NonCriticalWh[mo][h] = 300 * r.Float64() * float64(r.IntN(2))
+				d.InverterLossWh[mo][h] = 0.2 * r.Float64() * (d.CriticalWh[mo][h] + d.NonCriticalWh[mo][h])
+			}
+		}
+		nDays := 1 + r.IntN(60)
+		dm := make([]int8, nDays)
+		pv := make([]float64, 24*nDays)
+		for i := range dm {
+			dm[i] = int8(1 + r.IntN(12))
+		}
+		for i := range pv {
+			if r.IntN(3) > 0 {
+				pv[i] = r.Float64() * 2
+			}
+		}
+		capWh := 0.0
+		if r.IntN(5) > 0 {
+			capWh = 20000 * r.Float64()
+		}
+		minFrac := 0.8 * r.Float64()
+		m := battery.Model{
+			CapacityWh:           capWh,
+			EnergyWh:             capWh * r.Float64(),
+			MinWh:                capWh * minFrac,
+			ReconnectWh:          capWh * (minFrac + (1-minFrac)*r.Float64()*0.5),
+			ChargeEff:            0.6 + 0.4*r.Float64(),
+			DischargeEff:         0.6 + 0.4*r.Float64(),
+			SelfDischargePerHour: 1e-3 * r.Float64(),
+			KneeWh:               capWh * (0.7 + 0.3*r.Float64()),
+		}
+		if r.IntN(2) == 0 {
+			m.NonCriticalMinWh = capWh * (minFrac + (1-minFrac)*r.Float64())
+			m.NonCriticalReconnectWh = math.Min(capWh, m.NonCriticalMinWh+0.05*capWh)
+		}
+		if r.IntN(2) == 0 {
+			m.MaxChargeW = 2000 * r.Float64()
+			m.MaxDischargeW = 2000 * r.Float64()
+		}
+		p := Params{ControllerEfficiency: 0.8 + 0.2*r.Float64()}
+		if r.IntN(2) == 0 {
+			p.ControllerMaxOutWh = 3000 * r.Float64()
+		}
+		scale := 5000 * r.Float64()
+		start := m.EnergyWh
+		var led Ledger
+		days := make([]Day, nDays)
+		soc := make([]float32, 24*nDays)
+		// Split the run in two calls to check the ledger carries over.
+		half := nDays / 2
+		RunDays(pv[:24*half], scale, dm[:half], &d, &p, &m, &led, days[:half], soc[:24*half])
+		RunDays(pv[24*half:], scale, dm[half:], &d, &p, &m, &led, days[half:], soc[24*half:])
+		if err := led.Check(); err != nil {
+			t.Fatalf("trial %d: %v (%+v)", trial, err, led)
+		}
+		if led.BatteryStartWh != start || led.BatteryEndWh != m.EnergyWh {
+			t.Fatalf("trial %d: battery start/end %g/%g, want %g/%g", trial, led.BatteryStartWh, led.BatteryEndWh, start, m.EnergyWh)
+		}
+		var sum Ledger
+		for i, dy := range days {
+			if dy.Month != dm[i] {
+				t.Fatalf("trial %d day %d: month %d, want %d", trial, i, dy.Month, dm[i])
+			}
+			sum.PVAvailableWh += dy.PVAvailableWh
+			sum.LoadServedWh += dy.ServedWh()
+			sum.UnmetWh += dy.UnmetWh
+			sum.DumpedWh += dy.DumpedWh
+			sum.LossesWh += dy.ControllerLossWh + dy.BatteryLossWh
+			sum.DemandWh += dy.DemandWh
+			if dy.SOCMin > dy.SOCEnd || dy.SOCEnd > dy.SOCMax || dy.SOCMean < dy.SOCMin || dy.SOCMean > dy.SOCMax {
+				t.Fatalf("trial %d day %d: SOC min/mean/end/max %g/%g/%g/%g out of order", trial, i, dy.SOCMin, dy.SOCMean, dy.SOCEnd, dy.SOCMax)
+			}
+			if dy.InverterLossWh < 0 || dy.InverterLossWh > 0.2*dy.ServedWh()+1e-9 {
+				t.Fatalf("trial %d day %d: inverter loss %g of served %g", trial, i, dy.InverterLossWh, dy.ServedWh())
+			}
+			if float32(dy.SOCEnd) != soc[24*i+23] {
+				t.Fatalf("trial %d day %d: SOCEnd %g, soc trace %g", trial, i, dy.SOCEnd, soc[24*i+23])
+			}
+		}
+		sum.BatteryStartWh, sum.BatteryEndWh = led.BatteryStartWh, led.BatteryEndWh
+		if err := sum.Check(); err != nil {
+			t.Fatalf("trial %d: days do not add up: %v", trial, err)
+		}
+		for _, pair := range [][2]float64{{sum.PVAvailableWh, led.PVAvailableWh}, {sum.LoadServedWh, led.LoadServedWh}, {sum.DemandWh, led.DemandWh}} {
+			if !closes(pair[0], pair[1]) {
+				t.Fatalf("trial %d: days sum %g, ledger %g", trial, pair[0], pair[1])
+			}
+		}
+	}
+}
+
+// TestNoBattery: with CapacityWh 0 every hour serves exactly
+// min(PV × efficiency, controller limit, demand), critical first.
+func TestNoBattery(t *testing.T) {
+	tests := []struct {
+		name   string
+		scale  float64
+		p      Params
+		wantCr func(out, c float64) float64
+	}{
+		{"unlimited", 300, Params{ControllerEfficiency: 0.95}, nil},
+		{"clipped at 150 Wh", 300, Params{ControllerEfficiency: 0.95, ControllerMaxOutWh: 150}, nil},
+		{"small array", 40, Params{ControllerEfficiency: 0.9}, nil},
+	}
+	dm, pv := demoYear(3)
+	d := demoDemand()
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			m := noBattery()
+			var led Ledger
+			days := make([]Day, len(dm))
+			RunDays(pv, tc.scale, dm, d, &tc.p, &m, &led, days, nil)
+			if err := led.Check(); err != nil {
+				t.Fatal(err)
+			}
+			for i, dy := range days {
+				var wantC, wantN, wantDump float64
+				mo := dm[i] - 1
+				for h := 0; h < 24; h++ {
+					out := pv[24*i+h] * tc.scale * tc.p.ControllerEfficiency
+					if tc.p.ControllerMaxOutWh > 0 {
+						out = math.Min(out, tc.p.ControllerMaxOutWh)
+					}
+					c := math.Min(out, d.CriticalWh[mo][h])
+					n := math.Min(out-c, d.NonCriticalWh[mo][h])
+					wantC += c
+					wantN += n
+					wantDump += pv[24*i+h]*tc.scale - (c+n)/tc.p.ControllerEfficiency
+				}
+				if math.Abs(dy.ServedCriticalWh-wantC) > 1e-9*wantC+1e-12 || math.Abs(dy.ServedNonCriticalWh-wantN) > 1e-9*wantN+1e-12 {
+					t.Fatalf("day %d: served %g/%g, want %g/%g", i, dy.ServedCriticalWh, dy.ServedNonCriticalWh, wantC, wantN)
+				}
+				if math.Abs(dy.DumpedWh-wantDump) > 1e-9*wantDump+1e-9 {
+					t.Fatalf("day %d: dumped %g, want %g", i, dy.DumpedWh, wantDump)
+				}
+				if dy.ChargeWh != 0 || dy.DischargeWh != 0 || dy.BatteryLossWh != 0 || dy.SOCMax != 0 {
+					t.Fatalf("day %d: battery activity without a battery: %+v", i, dy)
+				}
+			}
+		})
+	}
+}
+
+// TestCriticalFirst: when the controller output is below the critical load
+// nothing goes to the non-critical loads, and the battery (kept at its
+// disconnect) gives nothing.
+func TestCriticalFirst(t *testing.T) {
+	var d Demand
+	for h := 0; h < 24; h++ {
+		d.CriticalWh[0][h] = 100
+		d.NonCriticalWh[0][h] = 100
+	}
+	pv := make([]float64, 24)
+	for h := range pv {
+		pv[h] = 0.5 // 50 Wh at scale 100, efficiency 1: half the critical load
+	}
+	m := demoBattery(1000)
+	m.EnergyWh = m.MinWh
+	m.Disconnected = true
+	var led Ledger
+	days := make([]Day, 1)
+	RunDays(pv, 100, []int8{1}, &d, &Params{ControllerEfficiency: 1}, &m, &led, days, nil)
+	// 24 h × 50 Wh critical, nothing non-critical (arithmetic on the scenario)
+	if got := days[0]; math.Abs(got.ServedCriticalWh-1200) > 1e-9 || got.ServedNonCriticalWh != 0 || got.UnmetHours != 24 {
+		t.Fatalf("served %g/%g, unmet hours %d; want 1200/0, 24", got.ServedCriticalWh, got.ServedNonCriticalWh, got.UnmetHours)
+	}
+}
+
+// TestNonCriticalShed: at night from a battery between its disconnect and
+// its non-critical threshold, critical loads are served and non-critical
+// ones shed.
+func TestNonCriticalShed(t *testing.T) {
+	var d Demand
+	for h := 0; h < 24; h++ {
+		d.CriticalWh[0][h] = 10
+		d.NonCriticalWh[0][h] = 10
+	}
+	m := demoBattery(10000) // MinWh 5000
+	m.NonCriticalMinWh = 8000
+	m.NonCriticalReconnectWh = 8500
+	m.EnergyWh = 7000
+	m.SelfDischargePerHour = 0
+	pv := make([]float64, 24)
+	var led Ledger
+	days := make([]Day, 1)
+	RunDays(pv, 0, []int8{1}, &d, &Params{ControllerEfficiency: 0.9}, &m, &led, days, nil)
+	got := days[0]
+	// 24 h × 10 Wh critical served, 240 Wh non-critical unmet (by construction)
+	if math.Abs(got.ServedCriticalWh-240) > 1e-9 || got.ServedNonCriticalWh != 0 || math.Abs(got.UnmetWh-240) > 1e-9 {
+		t.Fatalf("served %g/%g unmet %g; want 240/0/240", got.ServedCriticalWh, got.ServedNonCriticalWh, got.UnmetWh)
+	}
+	if err := led.Check(); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// TestInverterLossShare: the inverter loss of a day is each hour's
+// InverterLossWh times the served fraction of that hour.
+func TestInverterLossShare(t *testing.T) {
+	var d Demand
+	for h := 0; h < 24; h++ {
+		d.CriticalWh[0][h] = 100
+		d.InverterLossWh[0][h] = 10
+	}
+	pv := make([]float64, 24)
+	for h := 0; h < 12; h++ {
+		pv[h] = 1 // 50 Wh at scale 50: half of each of the first 12 hours
+	}
+	m := noBattery()
+	var led Ledger
+	days := make([]Day, 1)
+	RunDays(pv, 50, []int8{1}, &d, &Params{ControllerEfficiency: 1}, &m, &led, days, nil)
+	// 12 h × 10 Wh × 0.5 = 60 Wh (arithmetic on the scenario)
+	if got := days[0].InverterLossWh; math.Abs(got-60) > 1e-9 {
+		t.Fatalf("inverter loss %g, want 60", got)
+	}
+}
+
+func TestHugeSystemZeroLOLP(t *testing.T) {
+	m := demoBattery(1e6)
+	m.EnergyWh = m.CapacityWh
+	led, days := simulateYears(t, 3, 1e5, m, Params{ControllerEfficiency: 0.95})
+	if err := led.Check(); err != nil {
+		t.Fatal(err)
+	}
+	st := Summarise(days, m.CapacityWh, 3)
+	if led.UnmetWh != 0 || st.LOLP != 0 || st.UnmetHours != 0 {
+		t.Fatalf("unmet %g Wh, LOLP %g, %d hours; want 0", led.UnmetWh, st.LOLP, st.UnmetHours)
+	}
+}
+
+// TestTinyArray: an array whose output stays below every hour's load is all
+// served directly, so LOLP = 1 − efficiency × PV energy / demand exactly
+// (computed from the scenario).
+func TestTinyArray(t *testing.T) {
+	for _, capWh := range []float64{0, 5000} {
+		m := demoBattery(capWh)
+		m.EnergyWh = m.MinWh
+		m.Disconnected = true
+		const eff = 0.9
+		led, _ := simulateYears(t, 2, 10, m, Params{ControllerEfficiency: eff}) // peak 8 Wh < 40 Wh load
+		want := 1 - eff*led.PVAvailableWh/led.DemandWh
+		if got := led.UnmetWh / led.DemandWh; math.Abs(got-want) > 1e-9 {
+			t.Fatalf("capacity %g: LOLP %g, want %g", capWh, got, want)
+		}
+	}
+}
+
+func lolpOf(t *testing.T, scale, capWh float64) float64 {
+	m := demoBattery(capWh)
+	led, _ := simulateYears(t, 2, scale, m, Params{ControllerEfficiency: 0.95})
+	return led.UnmetWh / led.DemandWh
+}
+
+// TestMonotone: LOLP does not rise as the array or the battery grows.
+func TestMonotone(t *testing.T) {
+	prev := 2.0
+	for _, scale := range []float64{100, 300, 600, 900, 1200, 1600, 2200, 3000} {
+		l := lolpOf(t, scale, 4000)
+		if l > prev+1e-12 {
+			t.Fatalf("array scale %g: LOLP %g above %g of the smaller array", scale, l, prev)
+		}
+		prev = l
+	}
+	prev = 2.0
+	for _, capWh := range []float64{0, 500, 1000, 2000, 4000, 8000, 16000} {
+		l := lolpOf(t, 1200, capWh)
+		if l > prev+1e-12 {
+			t.Fatalf("battery %g Wh: LOLP %g above %g of the smaller battery", capWh, l, prev)
+		}
+		prev = l
+	}
+}
+
+func TestDeterministic(t *testing.T) {
+	a, da := simulateYears(t, 2, 1200, demoBattery(6000), Params{ControllerEfficiency: 0.95})
+	b, db := simulateYears(t, 2, 1200, demoBattery(6000), Params{ControllerEfficiency: 0.95})
+	if a != b {
+		t.Fatalf("ledgers differ: %+v vs %+v", a, b)
+	}
+	for i := range da {
+		if da[i] != db[i] {
+			t.Fatalf("day %d differs", i)
+		}
+	}
+}
+
+// TestRunDaysShortOrBadInput: RunDays never panics and reports how far it got.
+func TestRunDaysShortOrBadInput(t *testing.T) {
+	dm, pv := demoYear(1)
+	d := demoDemand()
+	p := Params{ControllerEfficiency: 0.95}
+	bad := append([]int8{}, dm...)
+	bad[10] = 13
+	tests := []struct {
+		name string
+		pv   []float64
+		dm   []int8
+		days int
+		soc  []float32
+		d    *Demand
+		want int
+	}{
+		{"full", pv, dm, 365, nil, d, 365},
+		{"pv short", pv[:24*100+5], dm, 365, nil, d, 100},
+		{"days short", pv, dm, 50, nil, d, 50},
+		{"soc short", pv, dm, 365, make([]float32, 24*20), d, 20},
+		{"bad month", pv, bad, 365, nil, d, 10},
+		{"nil demand", pv, dm, 365, nil, nil, 0},
+		{"empty", nil, nil, 0, nil, d, 0},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			m := demoBattery(3000)
+			var led Ledger
+			got := RunDays(tc.pv, 800, tc.dm, tc.d, &p, &m, &led, make([]Day, tc.days), tc.soc)
+			if got != tc.want {
+				t.Fatalf("RunDays = %d days, want %d", got, tc.want)
+			}
+			if err := led.Check(); err != nil {
+				t.Fatal(err)
+			}
+		})
+	}
+}
+
+// TestRunDaysOddParams: NaN, negative and excessive parameters are sanitised.
+func TestRunDaysOddParams(t *testing.T) {
+	dm, pv := demoYear(1)
+	pv[5] = math.NaN()
+	pv[30] = -4
+	pv[31] = math.Inf(1)
+	for _, p := range []Params{{ControllerEfficiency: math.NaN()}, {ControllerEfficiency: 1.5, ControllerMaxOutWh: -1}, {ControllerEfficiency: 0}} {
+		for _, scale := range []float64{math.NaN(), -3, 500, math.Inf(1)} {
+			m := demoBattery(2000)
+			var led Ledger
+			RunDays(pv, scale, dm, demoDemand(), &p, &m, &led, make([]Day, len(dm)), nil)
+			if err := led.Check(); err != nil {
+				t.Fatalf("params %+v scale %g: %v", p, scale, err)
+			}
+		}
+	}
+}
+
+// FuzzRunDays: on any PV values, scale, efficiency and battery figures the
+// kernel neither panics nor breaks the ledger.
+func FuzzRunDays(f *testing.F) {
+	f.Add(1.0, 500.0, 0.95, 0.0, 4000.0, 0.5, 0.5, 0.9, 0.95, 0.0)
+	f.Add(-1.0, 1e9, 2.0, 10.0, 0.0, 2.0, -1.0, 0.0, 1.0, 1e3)
+	f.Fuzz(func(t *testing.T, pvv, scale, eff, maxOut, capWh, soc, minFrac, ce, de, maxW float64) {
+		if math.IsInf(capWh, 0) || math.Abs(capWh) > 1e12 || math.Abs(scale) > 1e12 || math.Abs(pvv) > 1e6 || math.Abs(maxW) > 1e12 || math.Abs(maxOut) > 1e12 {
+			t.Skip() // beyond any physical bank or array; float rounding would swamp 1e-9
+		}
+		pv := make([]float64, 48)
+		for i := range pv {
+			pv[i] = pvv * float64(i%24) / 23
+		}
+		m := battery.Model{CapacityWh: math.Max(capWh, 0), ChargeEff: ce, DischargeEff: de, MaxChargeW: maxW, MaxDischargeW: maxW}
+		if !(m.CapacityWh > 0) {
+			m.CapacityWh = 0
+		}
+		s, mf := math.Max(0, math.Min(1, soc)), math.Max(0, math.Min(1, minFrac))
+		if math.IsNaN(soc) {
+			s = 0
+		}
+		if math.IsNaN(minFrac) {
+			mf = 0
+		}
+		m.EnergyWh, m.MinWh, m.ReconnectWh, m.KneeWh = s*m.CapacityWh, mf*m.CapacityWh, mf*m.CapacityWh, m.CapacityWh
+		var led Ledger
+		RunDays(pv, scale, []int8{1, 7}, demoDemand(), &Params{ControllerEfficiency: eff, ControllerMaxOutWh: maxOut}, &m, &led, make([]Day, 2), make([]float32, 48))
+		if err := led.Check(); err != nil {
+			t.Fatal(err)
+		}
+	})
+}
+
+// benchSetup returns one demo year and a mid-sized system.
+func benchSetup() ([]int8, []float64, *Demand, Params, battery.Model) {
+	dm, pv := demoYear(11)
+	return dm, pv, demoDemand(), Params{ControllerEfficiency: 0.95, ControllerMaxOutWh: 2000}, demoBattery(6000)
+}
+
+// BenchmarkYearHourly: one op is one simulated year of 8760 hourly steps of
+// one system through the kernel.
+func BenchmarkYearHourly(b *testing.B) {
+	dm, pv, d, p, m0 := benchSetup()
+	days := make([]Day, len(dm))
+	b.ReportAllocs()
+	for b.Loop() {
+		m := m0
+		var led Ledger
+		RunDays(pv, 1200, dm, d, &p, &m, &led, days, nil)
+	}
+}
+
+// BenchmarkMinimalLoop is the yardstick of BenchmarkYearHourly: over the
+// same year and system, a loop that only updates the state of charge
+// (through the same battery.Model methods, the irreducible work of every
+// step) and the ledger totals: no critical/non-critical split, no
+// controller limit, no day records.
+func BenchmarkMinimalLoop(b *testing.B) {
+	dm, pv, d, p, m0 := benchSetup()
+	var load [12 * 24]float64
+	for mo := 0; mo < 12; mo++ {
+		for h := 0; h < 24; h++ {
+			load[mo*24+h] = d.CriticalWh[mo][h] + d.NonCriticalWh[mo][h]
+		}
+	}
+	var sink Ledger
+	b.ReportAllocs()
+	for b.Loop() {
+		m := m0
+		led := Ledger{BatteryStartWh: m.EnergyWh}
+		for di, mo := range dm {
+			base := int(mo-1) * 24
+			for h := 0; h < 24; h++ {
+				pvh := 1200 * pv[di*24+h]
+				l := load[base+h]
+				net := pvh*p.ControllerEfficiency - l
+				served := l
+				if net > 0 {
+					acc, loss := m.Charge(net, 1)
+					led.LossesWh += loss
+					led.DumpedWh += net - acc
+				} else {
+					c, _, loss := m.Discharge(-net, 0, 1)
+					served = pvh*p.ControllerEfficiency + c
+					led.LossesWh += loss
+				}
+				led.LossesWh += m.SelfDischarge(1) + pvh*(1-p.ControllerEfficiency)
+				led.LoadServedWh += served
+				led.UnmetWh += l - served
+				led.PVAvailableWh += pvh
+				led.DemandWh += l
+			}
+		}
+		led.BatteryEndWh = m.EnergyWh
+		sink = led
+	}
+	if err := sink.Check(); err != nil {
+		b.Fatal(err)
+	}
+}
+
+// BenchmarkBareEnergyCount is, for comparison, the same year with the
+// battery written out inline as plain energy counting (efficiencies, floor,
+// ceiling, self-discharge; no acceptance taper, no hysteresis): the cost of
+// the arithmetic alone, without the battery model.
+func BenchmarkBareEnergyCount(b *testing.B) {
+	dm, pv, d, p, m0 := benchSetup()
+	var load [12 * 24]float64
+	for mo := 0; mo < 12; mo++ {
+		for h := 0; h < 24; h++ {
+			load[mo*24+h] = d.CriticalWh[mo][h] + d.NonCriticalWh[mo][h]
+		}
+	}
+	var sink Ledger
+	b.ReportAllocs()
+	for b.Loop() {
+		e := m0.EnergyWh
+		var led Ledger
+		led.BatteryStartWh = e
+		for di, mo := range dm {
+			base := int(mo-1) * 24
+			for h := 0; h < 24; h++ {
+				pvh := 1200 * pv[di*24+h]
+				out := min(pvh*p.ControllerEfficiency, p.ControllerMaxOutWh)
+				l := load[base+h]
+				net := out - l
+				if net >= 0 {
+					acc := min(net, (m0.CapacityWh-e)/m0.ChargeEff)
+					e += acc * m0.ChargeEff
+					led.LossesWh += acc * (1 - m0.ChargeEff)
+					led.LoadServedWh += l
+					led.DumpedWh += net - acc
+				} else {
+					del := min(-net, (e-m0.MinWh)*m0.DischargeEff)
+					e -= del / m0.DischargeEff
+					led.LoadServedWh += out + del
+					led.UnmetWh += -net - del
+				}
+				sd := e * m0.SelfDischargePerHour
+				e -= sd
+				led.LossesWh += sd
+				led.PVAvailableWh += pvh
+				led.DemandWh += l
+			}
+		}
+		led.BatteryEndWh = e
+		sink = led
+	}
+	_ = sink
+}
+
+func TestRunDaysAllocs(t *testing.T) {
+	dm, pv, d, p, m := benchSetup()
+	days := make([]Day, len(dm))
+	soc := make([]float32, len(pv))
+	var led Ledger
+	if a := testing.AllocsPerRun(5, func() { RunDays(pv, 1200, dm, d, &p, &m, &led, days, soc) }); a != 0 {
+		t.Fatalf("RunDays allocates %g times per call, want 0", a)
+	}
+}
