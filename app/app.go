@@ -265,8 +265,10 @@ func Schema(stdout io.Writer) error {
 	if err != nil {
 		return fail(ExitFailed, "%w", err)
 	}
-	_, err = stdout.Write(b)
-	return err
+	if _, err := stdout.Write(b); err != nil {
+		return fail(ExitFailed, "write schema: %w", err)
+	}
+	return nil
 }
 
 // Init writes a starter project from a template.

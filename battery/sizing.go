@@ -132,9 +132,14 @@ func Size(in SizingInput) (Sizing, error) {
 
 	series := in.SystemV / b.NominalV
 	n := math.Round(series)
-	if n < 1 || math.Abs(series-n) > 1e-6*n {
+	// Blocks whose nominal voltage is not a divisor of the system voltage
+	// still make its bank when the string lands within 10 % of it (four
+	// 3.2 V LiFePO4 cells for 12 V, a 51.2 V module for 48 V; common
+	// practice); the bank's own nominal voltage is then used for energy.
+	if n < 1 || math.Abs(series-n) > 0.1*n {
 		return s, fmt.Errorf("battery sizing: system voltage %v V is not a whole number of %v V blocks", in.SystemV, b.NominalV)
 	}
+	in.SystemV = n * b.NominalV
 
 	tf := math.Min(1, TemperatureFactor(in.Chem.Kind, in.TempC))
 	rf := 1.0

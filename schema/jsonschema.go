@@ -6,7 +6,6 @@ import (
 	"fmt"
 	"sync"
 
-	"github.com/invopop/jsonschema"
 	sjs "github.com/santhosh-tekuri/jsonschema/v6"
 )
 
@@ -16,11 +15,7 @@ const SchemaID = "https://solstand.invalid/schema/project.schema.json"
 // Generate returns the JSON Schema of the project document, generated from
 // the Go types of this package, indented and newline-terminated.
 func Generate() ([]byte, error) {
-	r := &jsonschema.Reflector{
-		DoNotReference: true,
-		ExpandedStruct: true,
-	}
-	s := r.Reflect(&Project{})
+	s := reflectSchema()
 	s.ID = SchemaID
 	s.Title = "solstand project"
 	s.Description = "A stand-alone photovoltaic system design: site, loads, array, controller, battery, inverter, wiring, costs and simulation options. Units are in the key names."

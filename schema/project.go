@@ -79,7 +79,7 @@ type System struct {
 
 // Module is the datasheet of one PV module at STC.
 type Module struct {
-	Name                 string   `json:"name,omitempty"`
+	Name                 string   `json:"name,omitempty" jsonschema:"description=Module name as it should appear in the parts list"`
 	PmaxW                float64  `json:"pmax_w" jsonschema:"description=Rated power at STC in W"`
 	VocV                 float64  `json:"voc_v" jsonschema:"description=Open-circuit voltage at STC in V"`
 	IscA                 float64  `json:"isc_a" jsonschema:"description=Short-circuit current at STC in A"`
@@ -207,15 +207,15 @@ type DCBranch struct {
 // a price not given is left out of the budget and said so.
 type Costs struct {
 	Currency          string   `json:"currency,omitempty" jsonschema:"description=Currency code or symbol (default USD)"`
-	ModuleEach        *float64 `json:"module_each,omitempty"`
-	ControllerEach    *float64 `json:"controller_each,omitempty"`
-	BatteryBlockEach  *float64 `json:"battery_block_each,omitempty"`
-	InverterEach      *float64 `json:"inverter_each,omitempty"`
+	ModuleEach        *float64 `json:"module_each,omitempty" jsonschema:"description=Price of one PV module"`
+	ControllerEach    *float64 `json:"controller_each,omitempty" jsonschema:"description=Price of one charge controller"`
+	BatteryBlockEach  *float64 `json:"battery_block_each,omitempty" jsonschema:"description=Price of one battery block"`
+	InverterEach      *float64 `json:"inverter_each,omitempty" jsonschema:"description=Price of the inverter"`
 	FuseEach          *float64 `json:"fuse_each,omitempty" jsonschema:"description=A fuse with its holder"`
 	BreakerEach       *float64 `json:"breaker_each,omitempty" jsonschema:"description=A DC breaker or disconnect"`
-	CombinerEach      *float64 `json:"combiner_each,omitempty"`
+	CombinerEach      *float64 `json:"combiner_each,omitempty" jsonschema:"description=Price of a PV combiner box (where strings are paralleled)"`
 	CablePerMPerMM2   *float64 `json:"cable_per_m_per_mm2,omitempty" jsonschema:"description=Cable price per metre and per mm² of cross-section (a simple copper-based price)"`
-	MountingPerModule *float64 `json:"mounting_per_module,omitempty"`
+	MountingPerModule *float64 `json:"mounting_per_module,omitempty" jsonschema:"description=Mounting structure price per module"`
 	Installation      *float64 `json:"installation,omitempty" jsonschema:"description=Installation labour and transport\\, lump sum"`
 	OMPerYear         *float64 `json:"om_per_year,omitempty" jsonschema:"description=Operation and maintenance per year"`
 	DiscountRate      *float64 `json:"discount_rate,omitempty" jsonschema:"description=Real discount rate per year 0..1 (default 0.05)"`

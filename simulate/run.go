@@ -226,12 +226,21 @@ func (d *run) loadDemand() error {
 		return errors.New("loads: the inventory draws no energy in any month")
 	}
 	if v := d.p.System.NominalV; v.IsAuto {
-		d.systemV = loads.AutoVoltage(maxDaily)
-		d.note("System voltage %g V chosen from the largest daily demand %.0f Wh/day (common practice: 12 V up to 1.5 kWh/day, 24 V up to 5 kWh/day, 48 V above).", d.systemV, maxDaily)
+		byEnergy := loads.AutoVoltage(maxDaily)
 		bv := d.p.Battery.Block.NominalV
-		if n := math.Round(d.systemV / bv); n < 1 || math.Abs(n*bv-d.systemV)/d.systemV > 0.1 {
-			return fmt.Errorf("battery.block.nominal_v: %g V blocks cannot make the %g V bank chosen for %.0f Wh/day; set system.nominal_v", bv, d.systemV, maxDaily)
+		for _, cand := range []float64{12, 24, 48} {
+			if cand < byEnergy {
+				continue
+			}
+			if n := math.Round(cand / bv); n >= 1 && math.Abs(n*bv-cand)/cand <= 0.1 {
+				d.systemV = cand
+				break
+			}
 		}
+		if d.systemV == 0 {
+			return fmt.Errorf("battery.block.nominal_v: %g V blocks cannot make a bank of %g V or more, which %.0f Wh/day calls for; set system.nominal_v", bv, byEnergy, maxDaily)
+		}
+		d.note("System voltage %g V: the largest daily demand %.0f Wh/day calls for at least %g V (common practice: 12 V up to 1.5 kWh/day, 24 V up to 5 kWh/day, 48 V above), and %g V blocks make it.", d.systemV, maxDaily, byEnergy, bv)
 	} else {
 		d.systemV = v.Value
 	}
@@ -274,6 +283,10 @@ func (d *run) loadDemand() error {
 	return nil
 }
 
+// minTiltDeg is the least tilt the optimiser chooses, so that rain runs off
+// and cleans the modules (common practice).
+const minTiltDeg = 10
+
 // resource computes the monthly resource on the array's plane and the design month.
 func (d *run) resource() error {
 	s := &d.p.Site
@@ -286,7 +299,12 @@ func (d *run) resource() error {
 			return fmt.Errorf("array.tilt_deg: %w", err)
 		}
 		tilt = t
-		d.note("Tilt %.0f° chosen to serve the worst month best (largest demand / plane-of-array irradiation), not the yearly total.", tilt)
+		if tilt < minTiltDeg {
+			d.note("The tilt that serves the worst month best is %.0f°; %g° is used so that rain washes the modules (common practice).", tilt, float64(minTiltDeg))
+			tilt = minTiltDeg
+		} else {
+			d.note("Tilt %.0f° chosen to serve the worst month best (largest demand / plane-of-array irradiation), not the yearly total.", tilt)
+		}
 	}
 	months, err := array.MonthlyResource(s.LatitudeDeg, d.ghi, array.Plane{TiltDeg: tilt, AzimuthDeg: az, AlbedoFraction: *s.AlbedoFrac, Horizon: d.horizon})
 	if err != nil {

@@ -63,6 +63,7 @@ func (d *run) size() error {
 		return fmt.Errorf("battery: %w", err)
 	}
 	d.bsz = bsz
+	d.systemV = bsz.SystemV // the bank's own nominal voltage (a 51.2 V LiFePO4 module on a 48 V system)
 	d.caution(bsz.Cautions...)
 	cells := math.Round(d.systemV / d.chem.CellV)
 	d.chargeV = cells * d.chem.AbsorptionVPerCell
