@@ -39,8 +39,8 @@ type sunJSON struct {
 }
 
 type sunPathJSON struct {
-	LatitudeDeg float64            `json:"latitude_deg"`
-	Note        string             `json:"note"`
+	LatitudeDeg float64             `json:"latitude_deg"`
+	Note        string              `json:"note"`
 	Rows        []report.SunPathRow `json:"rows"`
 }
 

@@ -209,7 +209,8 @@ func ApplyDefaults(p *Project) {
 	setF(&sim.DailySwingC, DefaultDailySwingC)
 	setF(&sim.CloudyStreakFrac, DefaultStreakFraction)
 	if sim.CloudyStreakDays == nil {
-		d := int(math.Ceil(*b.AutonomyDays))
+		// clamped so that a bad autonomy_days is reported once, as itself
+		d := int(math.Min(math.Max(math.Ceil(*b.AutonomyDays), 1), 60))
 		sim.CloudyStreakDays = &d
 	}
 

@@ -73,23 +73,49 @@ func DecodeWith(data []byte, opt DecodeOptions) (*Project, error) {
 	if n := countLoads(data); n > MaxLoads {
 		return nil, Problems{{Path: "loads", Message: fmt.Sprintf("has %d entries; the limit is %d", n, MaxLoads)}}
 	}
-	if ps := structural(data); len(ps) > 0 {
-		return nil, ps
-	}
+	sps := structural(data)
 	var p Project
 	dec := json.NewDecoder(bytes.NewReader(data))
-	dec.DisallowUnknownFields()
+	if len(sps) == 0 {
+		dec.DisallowUnknownFields()
+	}
 	if err := dec.Decode(&p); err != nil {
+		if len(sps) > 0 {
+			return nil, sps
+		}
 		return nil, Problems{{Message: decodeMessage(err)}}
 	}
 	if opt.WeatherFile != "" {
 		p.Site.WeatherFile = opt.WeatherFile
 	}
 	ApplyDefaults(&p)
-	if ps := Check(&p); len(ps) > 0 {
+	// The physical checks run even when the schema found problems, so that
+	// every problem comes out in one pass; a check at or below a path the
+	// schema already faulted (a missing or mistyped value) is left out.
+	var ps Problems
+	ps = append(ps, sps...)
+	for _, c := range Check(&p) {
+		if !underAny(c.Path, sps) {
+			ps = append(ps, c)
+		}
+	}
+	if len(ps) > 0 {
 		return nil, ps
 	}
 	return &p, nil
+}
+
+// underAny reports whether path is one of the problem paths or lies below one.
+func underAny(path string, ps Problems) bool {
+	for _, p := range ps {
+		if p.Path == "" {
+			continue
+		}
+		if path == p.Path || strings.HasPrefix(path, p.Path+".") || strings.HasPrefix(path, p.Path+"[") {
+			return true
+		}
+	}
+	return false
 }
 
 // syntax reports a JSON syntax error with its line and column.
@@ -202,8 +228,38 @@ func structural(data []byte) Problems {
 		out = append(out, leafProblems(c.tree, e, pr)...)
 	}
 	walk(ve)
-	sort.SliceStable(out, func(i, j int) bool { return out[i].Path < out[j].Path })
+	sort.SliceStable(out, func(i, j int) bool { return pathLess(out[i].Path, out[j].Path) })
 	return dedupe(out)
+}
+
+// pathLess orders JSON paths with array indices by number, so that
+// loads[2] comes before loads[10].
+func pathLess(a, b string) bool {
+	for a != "" && b != "" {
+		da, db := digitRun(a), digitRun(b)
+		if da > 0 && db > 0 {
+			na, _ := strconv.Atoi(a[:da])
+			nb, _ := strconv.Atoi(b[:db])
+			if na != nb {
+				return na < nb
+			}
+			a, b = a[da:], b[db:]
+			continue
+		}
+		if a[0] != b[0] {
+			return a[0] < b[0]
+		}
+		a, b = a[1:], b[1:]
+	}
+	return len(a) < len(b)
+}
+
+func digitRun(s string) int {
+	n := 0
+	for n < len(s) && n < 9 && s[n] >= '0' && s[n] <= '9' {
+		n++
+	}
+	return n
 }
 
 func dedupe(ps Problems) Problems {

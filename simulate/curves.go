@@ -170,14 +170,27 @@ func newRunner(in *CurveInput) *lolpRunner {
 // lolp simulates every year in turn, the battery carried over from year to
 // year, and returns unmet / demand.
 func (r *lolpRunner) lolp(ca, cs float64) float64 {
+	l, _ := r.lolpUpTo(ca, cs, math.Inf(1))
+	return l
+}
+
+// lolpUpTo is lolp with an early stop: every year has the same demand (the
+// same days and months), so once the unmet energy exceeds limit × the
+// demand of all years the LOLP is known to exceed limit, and lolpUpTo
+// returns that lower bound with exact = false.
+func (r *lolpRunner) lolpUpTo(ca, cs, limit float64) (lolp float64, exact bool) {
 	in := r.in
 	m := in.Battery(cs)
 	scale := in.ArrayScale(ca)
 	var led Ledger
-	for _, pv := range in.PVUnitWh {
+	years := float64(len(in.PVUnitWh))
+	for y, pv := range in.PVUnitWh {
 		RunDays(pv, scale, in.DayMonth, in.Demand, &in.Params, &m, &led, r.days, nil)
+		if total := led.DemandWh / float64(y+1) * years; y+1 < len(in.PVUnitWh) && led.UnmetWh > limit*total*(1+1e-9) {
+			return led.UnmetWh / total, false
+		}
 	}
-	return ratio(led.UnmetWh, led.DemandWh)
+	return ratio(led.UnmetWh, led.DemandWh), true
 }
 
 // checkAxis rejects non-finite or negative grid values.
@@ -258,9 +271,19 @@ func LOLPGridProgress(in *CurveInput, arrayToLoad, storageDays []float64, progre
 // storageDays the smallest array-to-load ratio C_A in
 // [ArrayToLoadMin, ArrayToLoadMax] whose LOLP is at most the target, found
 // by bisection to ArrayToLoadTolerance on the assumption that LOLP falls as
-// the array grows. A storage at which the target is not met even at
-// ArrayToLoadMax gets no point and is listed in UnreachableStorageDays. With
-// costs, Cheapest marks the least-cost point of each curve.
+// the array grows. LOLP is simulated, not smooth: the disconnect
+// hysteresis and the acceptance taper can make it wobble by a few per cent
+// of its value within a tolerance step, so the point is the upper end of a
+// bracket (lower end misses the target, upper end meets it) of width ≤
+// ArrayToLoadTolerance, not a guaranteed global smallest. A storage at
+// which the target is not met even at ArrayToLoadMax gets no point and is
+// listed in UnreachableStorageDays. With costs, Cheapest marks the
+// least-cost point of each curve.
+//
+// Every evaluation runs the years in turn with the battery carried over and
+// stops early once the unmet energy exceeds the target share of all years'
+// demand (such points only need to be known to miss); the LOLP reported
+// for each point is that of the full run.
 //
 // Storages run on in.Workers goroutines; progress (nil: none) is called
 // from the caller's goroutine after each storage and target with the
@@ -315,7 +338,7 @@ func IsoReliability(in *CurveInput, targets, storageDays []float64, progress fun
 				r := newRunner(in)
 				for i := range jobs {
 					cs := storageDays[i]
-					s := &searcher{lolp: func(ca float64) float64 { return r.lolp(ca, cs) }}
+					s := &searcher{lolp: func(ca, limit float64) (float64, bool) { return r.lolpUpTo(ca, cs, limit) }}
 					for j, t := range targets {
 						ca, l, ok, atMin := s.smallest(t, lo, hi, tol)
 						res[i*nt+j] = result{CurvePoint{StorageDays: cs, ArrayToLoad: ca, LOLP: l, AtRangeMin: atMin}, ok}
@@ -360,39 +383,43 @@ func IsoReliability(in *CurveInput, targets, storageDays []float64, progress fun
 
 // searcher finds the smallest C_A meeting a LOLP target by bisection,
 // remembering every evaluation so that later targets at the same storage
-// start from the tightest bracket already known.
+// start from the tightest bracket already known. An evaluation stopped
+// early holds a lower bound of the LOLP (exact false).
 type searcher struct {
-	lolp func(ca float64) float64
-	ca   []float64
-	l    []float64
+	lolp  func(ca, limit float64) (float64, bool)
+	ca    []float64
+	l     []float64
+	exact []bool
 }
 
-func (s *searcher) eval(ca float64) float64 {
+// eval returns the LOLP at ca, or a lower bound above target.
+func (s *searcher) eval(ca, target float64) float64 {
 	for i, x := range s.ca {
-		if x == ca {
+		if x == ca && (s.exact[i] || s.l[i] > target) {
 			return s.l[i]
 		}
 	}
-	v := s.lolp(ca)
+	v, ex := s.lolp(ca, target)
 	s.ca = append(s.ca, ca)
 	s.l = append(s.l, v)
+	s.exact = append(s.exact, ex)
 	return v
 }
 
 // smallest returns the C_A found, its LOLP, whether the target is met
 // within [lo, hi], and whether it is met already at lo.
 func (s *searcher) smallest(target, lo, hi, tol float64) (ca, lolp float64, ok, atMin bool) {
-	lHi := s.eval(hi)
+	lHi := s.eval(hi, target)
 	if lHi > target {
 		return 0, 0, false, false
 	}
-	if lLo := s.eval(lo); lLo <= target {
+	if lLo := s.eval(lo, target); lLo <= target {
 		return lo, lLo, true, true
 	}
 	// Tighten the bracket (a fails, b meets) from earlier evaluations.
 	a, b, lb := lo, hi, lHi
 	for i, x := range s.ca {
-		if x > a && x < b {
+		if x > a && x < b && (s.exact[i] || s.l[i] > target) {
 			if s.l[i] > target {
 				a = x
 			} else {
@@ -402,7 +429,7 @@ func (s *searcher) smallest(target, lo, hi, tol float64) (ca, lolp float64, ok, 
 	}
 	for b-a > tol {
 		mid := 0.5 * (a + b)
-		if v := s.eval(mid); v <= target {
+		if v := s.eval(mid, target); v <= target {
 			b, lb = mid, v
 		} else {
 			a = mid

@@ -236,3 +236,16 @@ func BenchmarkCurves(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkIsoReliability: one op is three targets (10 %, 1 %, 0.1 %) at
+// ten storages from 1 to 10 days over 20 demo years, on every core.
+func BenchmarkIsoReliability(b *testing.B) {
+	in := curveInput(20)
+	in.Workers = 0
+	storage := []float64{1, 1.5, 2, 3, 4, 5, 6, 7, 8, 10}
+	for b.Loop() {
+		if _, err := IsoReliability(in, []float64{0.1, 0.01, 0.001}, storage, nil); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -230,27 +230,28 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 		nDay := nonc[base : base+HoursPerDay]
 		fDay := invFrac[base : base+HoursPerDay]
 
-		var pvAvail, pvUsed, servedC, servedN, invLoss, outSum, batLoss, chg, dis, socSum float64
-		socMin, socMax, s := math.Inf(1), math.Inf(-1), 0.0
-		var unmetHours int16
+		// The hour loop keeps only this hour's values live across the battery
+		// calls (Go's calling convention saves no registers) and records them;
+		// the day's sums follow in a second, call-free loop.
+		var hPV, hUsed, hOut, hSC, hSN, hLoss, hChg, hDis, hSOC [HoursPerDay]float64
 		for h := 0; h < HoursPerDay; h++ {
 			pv := scale * pvDay[h]
 			if !(pv > 0 && pv <= math.MaxFloat64) { // NaN, negative, +Inf
 				pv = 0
 			}
 			dc, dn := cDay[h], nDay[h]
-			var sc, sn, used, out, lossB float64
+			var sc, sn, used, out, lossB, acc float64
 			if pv > 0 && eff > 0 {
 				avail := min(pv*eff, maxOut)
 				sc = min(dc, avail)
 				sn = min(dn, avail-sc)
 				out = sc + sn
 				if rem := avail - out; rem > 0 {
-					acc, loss := m.Charge(rem, 1)
-					if acc > 0 {
-						out += acc
-						chg += acc
-						lossB += loss
+					a, loss := m.Charge(rem, 1)
+					if a > 0 {
+						acc = a
+						out += a
+						lossB = loss
 					}
 				}
 				used = out * invEff
@@ -258,30 +259,38 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 					used = pv
 				}
 			}
+			hPV[h], hUsed[h], hOut[h], hChg[h] = pv, used, out, acc
 			if rc, rn := dc-sc, dn-sn; rc > 0 || rn > 0 {
 				bc, bn, loss := m.Discharge(rc, rn, 1)
 				sc += bc
 				sn += bn
-				dis += bc + bn
+				hDis[h] = bc + bn
 				lossB += loss
 			}
-			lossB += m.SelfDischarge(1)
+			hSC[h], hSN[h] = sc, sn
+			hLoss[h] = lossB + m.SelfDischarge(1)
+			hSOC[h] = m.SOC()
+		}
 
-			hd := dc + dn
-			served := sc + sn
-			u := hd - served
-			if u > ledgerRelTol*hd {
+		var pvAvail, pvUsed, servedC, servedN, invLoss, outSum, batLoss, chg, dis, socSum float64
+		socMin, socMax := math.Inf(1), math.Inf(-1)
+		var unmetHours int16
+		for h := 0; h < HoursPerDay; h++ {
+			hd := cDay[h] + nDay[h]
+			served := hSC[h] + hSN[h]
+			if u := hd - served; u > ledgerRelTol*hd {
 				unmetHours++
 			}
-			pvAvail += pv
-			pvUsed += used
-			outSum += out
-			servedC += sc
-			servedN += sn
+			pvAvail += hPV[h]
+			pvUsed += hUsed[h]
+			outSum += hOut[h]
+			servedC += hSC[h]
+			servedN += hSN[h]
 			invLoss += fDay[h] * served
-			batLoss += lossB
-
-			s = m.SOC()
+			batLoss += hLoss[h]
+			chg += hChg[h]
+			dis += hDis[h]
+			s := hSOC[h]
 			socSum += s
 			if s < socMin {
 				socMin = s
@@ -289,8 +298,11 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 			if s > socMax {
 				socMax = s
 			}
-			if writeSOC {
-				soc[di*HoursPerDay+h] = float32(s)
+		}
+		if writeSOC {
+			out := soc[di*HoursPerDay : di*HoursPerDay+HoursPerDay]
+			for h, s := range hSOC {
+				out[h] = float32(s)
 			}
 		}
 		demand := dayDemand[mo-1]
@@ -311,7 +323,7 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 			BatteryLossWh:       batLoss,
 			SOCMin:              socMin,
 			SOCMax:              socMax,
-			SOCEnd:              s,
+			SOCEnd:              hSOC[HoursPerDay-1],
 			SOCMean:             socSum / HoursPerDay,
 			ChargeWh:            chg,
 			DischargeWh:         dis,
