@@ -1,0 +1,156 @@
+package simulate
+
+import (
+	"fmt"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"solstand/schema"
+	"solstand/weather"
+)
+
+func loadExample(t *testing.T, name string) *schema.Project {
+	t.Helper()
+	data, err := os.ReadFile(filepath.Join("..", "examples", name+".json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := schema.Decode(data)
+	if err != nil {
+		t.Fatalf("%s: %v", name, err)
+	}
+	return p
+}
+
+func shortRun(n int) Options { return Options{Years: &n} }
+
+// TestSizingChains checks that the report's results follow from its own
+// factors by the method's formulas (the same chains the workbook writes as
+// formulas): the design month is the month of the largest demand/POA ratio;
+// array.required_w = E / (PSH × temperature × derates × controller × battery
+// path); battery.required_ah = E × days / (DoD × temperature × rate ×
+// efficiency) / V; installed sizes are whole modules and blocks that cover
+// the required figures.
+func TestSizingChains(t *testing.T) {
+	for _, name := range []string{"cabin", "clinic", "telecom"} {
+		t.Run(name, func(t *testing.T) {
+			r, err := Run(loadExample(t, name), shortRun(2))
+			if err != nil {
+				t.Fatal(err)
+			}
+			dm := r.DesignMonth
+			best, worst := 0, -1.0
+			for m := range 12 {
+				if ratio := r.Demand.DailyWh[m] / r.Resource.POAKWhM2Day[m]; ratio > worst {
+					best, worst = m+1, ratio
+				}
+			}
+			if dm != best {
+				t.Errorf("design month %d, largest demand/POA in %d", dm, best)
+			}
+			E := r.Demand.DailyWh[dm-1]
+			a := r.Array
+			want := E / (a.DesignPSH * a.TemperatureFactor * a.DerateFactor * a.ControllerFactor * a.BatteryPathFactor)
+			if math.Abs(a.RequiredW-want) > 1e-9*want {
+				t.Errorf("array.required_w %g, chain gives %g", a.RequiredW, want)
+			}
+			if a.RatedW < a.RequiredW || a.RatedW != float64(a.Modules)*a.Module.PmaxW || a.Modules != a.ModulesSeries*a.Strings {
+				t.Errorf("array: %d modules (%d × %d) = %g W for %g W asked", a.Modules, a.ModulesSeries, a.Strings, a.RatedW, a.RequiredW)
+			}
+			b := r.Battery
+			wantAh := E * b.AutonomyDays / (b.MaxDoD * b.TempFactor * b.RateFactor * b.DischargeEfficiency) / b.NominalV
+			if math.Abs(b.RequiredAh-wantAh) > 1e-9*wantAh {
+				t.Errorf("battery.required_ah %g, chain gives %g", b.RequiredAh, wantAh)
+			}
+			if b.CapacityAh < b.RequiredAh || b.CapacityAh != float64(b.Strings)*b.BlockAh || b.CapacityWh != b.CapacityAh*b.NominalV {
+				t.Errorf("battery: %d strings of %g Ah = %g Ah (%g Wh) for %g Ah asked", b.Strings, b.BlockAh, b.CapacityAh, b.CapacityWh, b.RequiredAh)
+			}
+			if math.Abs(float64(b.BlocksSeries)*b.BlockV-b.NominalV) > 1e-9 {
+				t.Errorf("battery: %d × %g V blocks, bank %g V", b.BlocksSeries, b.BlockV, b.NominalV)
+			}
+			if r.Controller.RatedA*float64(r.Controller.Units) < r.Controller.RequiredA-1e-9 {
+				t.Errorf("controller %d × %g A below the required %g A", r.Controller.Units, r.Controller.RatedA, r.Controller.RequiredA)
+			}
+			if inv := r.Inverter; inv != nil && (inv.ContinuousW < inv.RequiredContinuousW || inv.SurgeW < inv.RequiredSurgeW) {
+				t.Errorf("inverter %g/%g W for %g/%g W asked", inv.ContinuousW, inv.SurgeW, inv.RequiredContinuousW, inv.RequiredSurgeW)
+			}
+			if len(r.Simulation.FirstYear) != 365 || len(r.Simulation.Monthly) != 12 || len(r.Simulation.Stress) != 2 {
+				t.Errorf("simulation: %d days, %d months, %d stress tests", len(r.Simulation.FirstYear), len(r.Simulation.Monthly), len(r.Simulation.Stress))
+			}
+		})
+	}
+}
+
+// TestSeedRepeats: the same seed gives the same numbers; another seed other numbers.
+func TestSeedRepeats(t *testing.T) {
+	run := func(seed uint64) float64 {
+		o := shortRun(3)
+		o.Seed = &seed
+		r, err := Run(loadExample(t, "cabin"), o)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return r.Simulation.Ledger.PVAvailableWh
+	}
+	if a, b := run(5), run(5); a != b {
+		t.Errorf("same seed: %g and %g", a, b)
+	}
+	if a, b := run(5), run(6); a == b {
+		t.Errorf("seeds 5 and 6 gave the same PV energy %g", a)
+	}
+}
+
+// TestWeatherFile runs the clinic with a daily CSV weather file whose every
+// day equals the project's monthly mean: the monthly means come back
+// exactly, a measured year is simulated, and the file's ledger closes.
+func TestWeatherFile(t *testing.T) {
+	p := loadExample(t, "clinic")
+	var b strings.Builder
+	b.WriteString("date,ghi_kwh_m2_day,temp_c\n")
+	for di := range 365 {
+		m, d := weather.DayOfYearMonth(di)
+		fmt.Fprintf(&b, "2025-%02d-%02d,%g,%g\n", m, d, p.Site.GHIKWhM2Day[m-1]+0.3, p.Site.AirTempC[m-1])
+	}
+	path := filepath.Join(t.TempDir(), "site.csv")
+	if err := os.WriteFile(path, []byte(b.String()), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	s, err := weather.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p.Site.WeatherFile = path
+	o := shortRun(2)
+	o.Weather = &s
+	r, err := Run(p, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	clinic := loadExample(t, "clinic")
+	for m := range 12 {
+		if want := clinic.Site.GHIKWhM2Day[m] + 0.3; math.Abs(r.Resource.GHIKWhM2Day[m]-want) > 1e-9 {
+			t.Errorf("month %d: GHI %g, file mean %g", m+1, r.Resource.GHIKWhM2Day[m], want)
+		}
+	}
+	if r.Simulation.Measured == nil {
+		t.Fatal("no measured year in the results")
+	}
+	if !strings.Contains(r.Resource.Source, "weather file") {
+		t.Errorf("resource source %q", r.Resource.Source)
+	}
+}
+
+// TestPolarNightRefused: a site in polar night with loads in December cannot
+// be served by PV; the run fails with a clear message instead of dividing by zero.
+func TestPolarNightRefused(t *testing.T) {
+	p := loadExample(t, "telecom")
+	p.Site.LatitudeDeg = 78
+	p.Site.GHIKWhM2Day = []float64{0, 0.3, 1.5, 3.5, 5.5, 6.5, 5.5, 3.5, 1.5, 0.3, 0, 0}
+	_, err := Run(p, shortRun(1))
+	if err == nil || !strings.Contains(err.Error(), "no sun") {
+		t.Errorf("polar night: %v", err)
+	}
+}
