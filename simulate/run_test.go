@@ -154,3 +154,44 @@ func TestPolarNightRefused(t *testing.T) {
 		t.Errorf("polar night: %v", err)
 	}
 }
+
+// TestMaterialsAddUp: each example's parts list has the design's quantities
+// and its total is the sum of quantity × unit price; the lifecycle cost's
+// present worths add up to the net present cost.
+func TestMaterialsAddUp(t *testing.T) {
+	for _, name := range []string{"cabin", "clinic", "telecom"} {
+		r, err := Run(loadExample(t, name), shortRun(2))
+		if err != nil {
+			t.Fatal(err)
+		}
+		sum := 0.0
+		qty := map[string]float64{}
+		for _, it := range r.Materials.Items {
+			sum += it.Quantity * it.UnitPrice
+			qty[it.Category] += it.Quantity
+		}
+		if math.Abs(sum-r.Materials.Total) > 1e-9*sum {
+			t.Errorf("%s: total %g, items add to %g", name, r.Materials.Total, sum)
+		}
+		if qty["battery"] != float64(r.Battery.Blocks) {
+			t.Errorf("%s: %g battery blocks listed, design has %d", name, qty["battery"], r.Battery.Blocks)
+		}
+		if qty["controller"] != float64(r.Controller.Units) {
+			t.Errorf("%s: %g controllers listed, design has %d", name, qty["controller"], r.Controller.Units)
+		}
+		if qty["cable"] <= 0 || qty["protection"] <= 0 {
+			t.Errorf("%s: no cable (%g m) or protection (%g) in the list", name, qty["cable"], qty["protection"])
+		}
+		lc := r.Lifecycle
+		if lc == nil {
+			t.Fatalf("%s: no lifecycle cost although prices are given", name)
+		}
+		pw := 0.0
+		for _, row := range lc.Rows {
+			pw += row.PresentWorth
+		}
+		if math.Abs(pw-lc.NetPresentCost) > 1e-6*lc.NetPresentCost {
+			t.Errorf("%s: rows add to %g, net present cost %g", name, pw, lc.NetPresentCost)
+		}
+	}
+}
