@@ -71,6 +71,10 @@ func Report(w io.Writer, err error) {
 // LoadProject reads, decodes and checks a project file. A weather file given
 // on the command line (weatherPath) stands in for the project's monthly means.
 func LoadProject(path, weatherPath string) (*schema.Project, error) {
+	if st, err := os.Stat(path); err == nil && st.Size() > schema.MaxDocumentBytes {
+		return nil, &Error{Code: ExitInvalid, Err: schema.Problems{{Message: fmt.Sprintf("%s: document is %.1f MB; the limit is %d MB (a project describes one site; split a fleet into one file per site)",
+			path, float64(st.Size())/(1<<20), schema.MaxDocumentBytes>>20)}}}
+	}
 	data, err := os.ReadFile(path)
 	if err != nil {
 		return nil, fail(ExitFailed, "%w", err)

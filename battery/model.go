@@ -164,13 +164,13 @@ func (m *Model) Charge(offeredWh, hours float64) (acceptedWh, lossWh float64) {
 	p := offeredWh / hours
 	ref := p
 	if m.MaxChargeW > 0 {
-		p = math.Min(p, m.MaxChargeW)
+		p = min(p, m.MaxChargeW)
 		ref = m.MaxChargeW
 	}
 	rate := p * m.ChargeEff
 	e := e0
 	if span := full - m.KneeWh; span <= 0 {
-		e = math.Min(full, e0+rate*hours)
+		e = min(full, e0+rate*hours)
 	} else {
 		t := hours
 		if ek := full - (p/ref)*span; e < ek { // below ek the offer is under the limit
@@ -186,7 +186,7 @@ func (m *Model) Charge(offeredWh, hours float64) (acceptedWh, lossWh float64) {
 			tau := span / (ref * m.ChargeEff)
 			e = full - (full-e)*math.Exp(-t/tau)
 		}
-		e = math.Min(e, full)
+		e = min(e, full)
 	}
 	inc := e - e0
 	if !(inc > 0) {
@@ -231,15 +231,15 @@ func (m *Model) Discharge(criticalWh, nonCriticalWh, hours float64) (deliveredCr
 		limit = m.MaxDischargeW * hours
 	}
 	avail := (e0 - m.MinWh) * eff
-	dc := math.Min(criticalWh, math.Min(avail, limit))
+	dc := min(criticalWh, min(avail, limit))
 	if !(dc > 0) {
 		dc = 0
 	}
 	dn := 0.0
 	if !m.NonCriticalShed && nonCriticalWh > 0 {
-		floor := math.Max(m.MinWh, m.NonCriticalMinWh)
+		floor := max(m.MinWh, m.NonCriticalMinWh)
 		if availN := (e0 - dc/eff - floor) * eff; availN > 0 {
-			dn = math.Min(nonCriticalWh, math.Min(availN, limit-dc))
+			dn = min(nonCriticalWh, min(availN, limit-dc))
 			if !(dn > 0) {
 				dn = 0
 			}
@@ -263,7 +263,7 @@ func (m *Model) SelfDischarge(hours float64) (lossWh float64) {
 	if !(hours > 0) || !(m.SelfDischargePerHour > 0) || !(m.EnergyWh > 0) {
 		return 0
 	}
-	f := math.Min(1, m.SelfDischargePerHour*hours)
+	f := min(1, m.SelfDischargePerHour*hours)
 	e0 := m.EnergyWh
 	m.EnergyWh = e0 - e0*f
 	m.updateFlags()

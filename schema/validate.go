@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"reflect"
 	"sort"
 	"strconv"
 	"strings"
@@ -67,6 +68,9 @@ func DecodeWith(data []byte, opt DecodeOptions) (*Project, error) {
 	if len(data) > MaxDocumentBytes {
 		return nil, Problems{{Message: fmt.Sprintf("document is %.1f MB; the limit is %d MB (a project describes one site; split a fleet into one file per site)", float64(len(data))/(1<<20), MaxDocumentBytes>>20)}}
 	}
+	// A byte-order mark, as some editors write at the start of a UTF-8
+	// file, is not part of the JSON.
+	data = bytes.TrimPrefix(data, []byte("\xef\xbb\xbf"))
 	if ps := syntax(data); ps != nil {
 		return nil, ps
 	}
@@ -83,7 +87,7 @@ func DecodeWith(data []byte, opt DecodeOptions) (*Project, error) {
 		if len(sps) > 0 {
 			return nil, sps
 		}
-		return nil, Problems{{Message: decodeMessage(err)}}
+		return nil, Problems{decodeProblem(data, err)}
 	}
 	if opt.WeatherFile != "" {
 		p.Site.WeatherFile = opt.WeatherFile
@@ -122,10 +126,15 @@ func underAny(path string, ps Problems) bool {
 func syntax(data []byte) Problems {
 	var v any
 	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber() // a number beyond float64 is a range problem, found later with its path
 	err := dec.Decode(&v)
 	if err == nil {
-		if _, err2 := dec.Token(); err2 == nil {
-			line, col := lineCol(data, dec.InputOffset())
+		off := dec.InputOffset()
+		if _, err2 := dec.Token(); err2 != io.EOF {
+			for off < int64(len(data)) && strings.IndexByte(" \t\r\n", data[off]) >= 0 {
+				off++
+			}
+			line, col := lineCol(data, off)
 			return Problems{{Message: fmt.Sprintf("line %d, column %d: unexpected data after the document", line, col)}}
 		}
 		if _, ok := v.(map[string]any); !ok {
@@ -135,7 +144,8 @@ func syntax(data []byte) Problems {
 	}
 	var se *json.SyntaxError
 	if errors.As(err, &se) {
-		line, col := lineCol(data, se.Offset)
+		// Offset counts the offending byte itself; the column is that byte's.
+		line, col := lineCol(data, max(se.Offset-1, 0))
 		return Problems{{Message: fmt.Sprintf("line %d, column %d: JSON syntax: %s", line, col, se.Error())}}
 	}
 	if errors.Is(err, io.ErrUnexpectedEOF) || errors.Is(err, io.EOF) {
@@ -187,12 +197,95 @@ func countLoads(data []byte) int {
 	return n
 }
 
-func decodeMessage(err error) string {
+// decodeProblem turns an error of the final decode (which the schema let
+// through: a number beyond the range of its Go type) into a Problem at the
+// value's path.
+func decodeProblem(data []byte, err error) Problem {
 	var te *json.UnmarshalTypeError
 	if errors.As(err, &te) {
-		return fmt.Sprintf("%s: must be %s, got %s", te.Field, te.Type.String(), te.Value)
+		want := te.Type.String()
+		switch te.Type.Kind() {
+		case reflect.Int, reflect.Int64:
+			want = "a whole number"
+		case reflect.Uint64:
+			want = "a whole number from 0 to 18446744073709551615"
+		case reflect.Float64:
+			want = "a number between -1.8e308 and 1.8e308"
+		}
+		path := te.Field
+		if p, ok := pathAt(data, te.Offset); ok {
+			path = p
+		}
+		return Problem{Path: path, Message: fmt.Sprintf("must be %s, got %s", want, te.Value)}
 	}
-	return err.Error()
+	return Problem{Message: err.Error()}
+}
+
+// pathAt returns the JSON path (`loads[2].months[0]`) of the first scalar
+// value that ends at or after byte offset off of a syntactically valid
+// document.
+func pathAt(data []byte, off int64) (string, bool) {
+	type frame struct {
+		array bool
+		index int
+		key   string
+		atKey bool // an object awaiting its next key
+	}
+	var stack []frame
+	path := func() string {
+		var b strings.Builder
+		for i, f := range stack {
+			switch {
+			case f.array:
+				fmt.Fprintf(&b, "[%d]", f.index)
+			default:
+				if i > 0 {
+					b.WriteByte('.')
+				}
+				b.WriteString(f.key)
+			}
+		}
+		return b.String()
+	}
+	// value is called after a whole value; it advances the enclosing frame.
+	value := func() {
+		if n := len(stack); n > 0 {
+			if stack[n-1].array {
+				stack[n-1].index++
+			} else {
+				stack[n-1].atKey = true
+			}
+		}
+	}
+	dec := json.NewDecoder(bytes.NewReader(data))
+	dec.UseNumber()
+	for {
+		tok, err := dec.Token()
+		if err != nil {
+			return "", false
+		}
+		n := len(stack)
+		if n > 0 && !stack[n-1].array && stack[n-1].atKey {
+			if k, ok := tok.(string); ok {
+				stack[n-1].key, stack[n-1].atKey = k, false
+				continue
+			}
+		}
+		switch tok {
+		case json.Delim('{'):
+			stack = append(stack, frame{atKey: true})
+		case json.Delim('['):
+			stack = append(stack, frame{array: true})
+		case json.Delim('}'), json.Delim(']'):
+			stack = stack[:n-1]
+			value()
+		default:
+			if dec.InputOffset() >= off {
+				return path(), true
+			}
+			value()
+		}
+	}
 }
 
 // structural checks the document against the generated JSON Schema.
@@ -286,7 +379,12 @@ func leafProblems(tree map[string]any, e *sjs.ValidationError, pr *message.Print
 			if s := closest(prop, known); s != "" {
 				msg += fmt.Sprintf(" (did you mean %q?)", s)
 			}
-			ps = append(ps, Problem{Path: JoinPath(append(append([]string{}, e.InstanceLocation...), prop)), Message: msg})
+			// joined by hand: an unknown key may look like an array index ("7")
+			at := prop
+			if path != "" {
+				at = path + "." + prop
+			}
+			ps = append(ps, Problem{Path: at, Message: msg})
 		}
 		return ps
 	case *kind.Required:

@@ -290,17 +290,19 @@ func (d *run) finish() {
 		d.caution(caution.Caution{Code: "pv-much-dumped", Severity: caution.Info,
 			Message: fmt.Sprintf("%.0f %% of the PV energy is dumped because the bank is full: a sign of over-sizing outside the design month (or room for daytime loads).", 100*s.DumpedWh/s.PVAvailableWh)})
 	}
+	// One caution per code: where two parts of the design raise the same
+	// code (the battery and the wiring both warn of the short-circuit
+	// current), the more severe, then the first, stands.
+	sort.SliceStable(d.cautions, func(i, j int) bool { return d.cautions[i].Severity.Rank() < d.cautions[j].Severity.Rank() })
 	seen := map[string]bool{}
 	var out []caution.Caution
 	for _, c := range d.cautions {
-		key := c.Code + "\x00" + c.Message
-		if seen[key] {
+		if seen[c.Code] {
 			continue
 		}
-		seen[key] = true
+		seen[c.Code] = true
 		out = append(out, c)
 	}
-	sort.SliceStable(out, func(i, j int) bool { return out[i].Severity.Rank() < out[j].Severity.Rank() })
 	d.r.Cautions = out
 	d.r.Methods = methods()
 }

@@ -14,7 +14,7 @@ const FullSOC = 0.99
 const HalfSOC = 0.5
 
 // MonthStats are the figures of one calendar month across all simulated
-// years.
+// years (all zero for a month with no days).
 type MonthStats struct {
 	Month         int     `json:"month"`
 	Days          int     `json:"days"`
