@@ -113,17 +113,6 @@ type ResourceOptions struct {
 	JSON           bool
 }
 
-type resourceMonthJSON struct {
-	Month                    int     `json:"month"`
-	DayOfYear                int     `json:"day_of_year"`
-	ExtraterrestrialKWhM2Day float64 `json:"extraterrestrial_kwh_m2_day"`
-	GHIKWhM2Day              float64 `json:"ghi_kwh_m2_day"`
-	ClearnessIndex           float64 `json:"clearness_index"`
-	DiffuseFraction          float64 `json:"diffuse_fraction"`
-	BeamRatio                float64 `json:"beam_ratio"`
-	POAKWhM2Day              float64 `json:"poa_kwh_m2_day"`
-}
-
 // Resource prints the monthly solar resource table for a site and a plane.
 func Resource(opt ResourceOptions, stdout, stderr io.Writer) error {
 	var ghi [12]float64
@@ -182,17 +171,18 @@ func Resource(opt ResourceOptions, stdout, stderr io.Writer) error {
 	if err != nil {
 		return fail(ExitFailed, "%w", err)
 	}
-	rows := make([]resourceMonthJSON, 12)
+	rows := make([]report.ResourceMonth, 12)
 	for i, m := range months {
-		rows[i] = resourceMonthJSON{m.Month, m.DayOfYear, m.ExtraterrestrialKWhM2Day, m.GHIKWhM2Day, m.ClearnessIndex, m.DiffuseFraction, m.BeamRatio, m.POAKWhM2Day}
+		rows[i] = report.ResourceMonth{Month: m.Month, DayOfYear: m.DayOfYear, ExtraterrestrialKWhM2Day: m.ExtraterrestrialKWhM2Day,
+			GHIKWhM2Day: m.GHIKWhM2Day, ClearnessIndex: m.ClearnessIndex, DiffuseFraction: m.DiffuseFraction, BeamRatio: m.BeamRatio, POAKWhM2Day: m.POAKWhM2Day}
 	}
 	if opt.JSON {
 		return writeJSON(stdout, struct {
-			LatitudeDeg float64             `json:"latitude_deg"`
-			TiltDeg     float64             `json:"tilt_deg"`
-			AzimuthDeg  float64             `json:"azimuth_deg"`
-			Albedo      float64             `json:"albedo"`
-			Months      []resourceMonthJSON `json:"months"`
+			LatitudeDeg float64                `json:"latitude_deg"`
+			TiltDeg     float64                `json:"tilt_deg"`
+			AzimuthDeg  float64                `json:"azimuth_deg"`
+			Albedo      float64                `json:"albedo"`
+			Months      []report.ResourceMonth `json:"months"`
 		}{lat, opt.TiltDeg, az, opt.Albedo, rows})
 	}
 	fmt.Fprintf(stdout, "Monthly resource at latitude %g°, plane tilt %g° azimuth %g°, albedo %g (kWh/m²/day)\nmonth  day  extraterr.  GHI   K_T    diffuse  R_b    plane\n", lat, opt.TiltDeg, az, opt.Albedo)

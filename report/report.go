@@ -104,7 +104,7 @@ type ResourceMonth struct {
 	DiffuseFraction          float64 `json:"diffuse_fraction"`
 	BeamRatio                float64 `json:"beam_ratio"`
 	POAKWhM2Day              float64 `json:"poa_kwh_m2_day"`
-	AirTempC                 float64 `json:"air_temp_c"`
+	AirTempC                 float64 `json:"air_temp_c,omitempty"`
 }
 
 // Module echoes the module datasheet.
