@@ -48,7 +48,7 @@ func newStyles(f *excelize.File) (styles, error) {
 		{Type: "top", Color: colBorder, Style: 1}, {Type: "bottom", Color: colBorder, Style: 1},
 	}
 	fill := func(c string) excelize.Fill { return excelize.Fill{Type: "pattern", Color: []string{c}, Pattern: 1} }
-	num2, num0, pct := "#,##0.00", "#,##0", "0.0%"
+	num2, num0, pct := "#,##0.00", "#,##0", "0.00%"
 	mk := func(dst *int, st *excelize.Style) {
 		if err != nil {
 			return
@@ -114,15 +114,26 @@ func (s styles) severity(sv caution.Severity) int {
 
 // grid is a sheet being assembled in memory before it is streamed in row order.
 type grid struct {
-	name   string
-	rows   map[int][]any
-	widths map[int]float64
-	merges [][2]string
-	freeze int // rows frozen at the top (0 none)
+	name    string
+	rows    map[int][]any
+	widths  map[int]float64
+	merges  [][2]string
+	freeze  int             // rows frozen at the top (0 none)
+	heights map[int]float64 // row heights in points, where wrapped text needs more than one line
 }
 
 func newGrid(name string) *grid {
-	return &grid{name: name, rows: map[int][]any{}, widths: map[int]float64{}}
+	return &grid{name: name, rows: map[int][]any{}, widths: map[int]float64{}, heights: map[int]float64{}}
+}
+
+// fit makes row tall enough for text wrapped in a column (or merged
+// columns) about widthChars characters wide: spreadsheet programs do not
+// grow rows for wrapped text in merged cells, nor always on load.
+func (g *grid) fit(row int, text string, widthChars float64) {
+	lines := math.Ceil(float64(len([]rune(text))) * 1.1 / widthChars)
+	if h := 15 * math.Max(1, lines); h > g.heights[row] {
+		g.heights[row] = h
+	}
 }
 
 // put stores v at column col (1-based) of row.
@@ -196,7 +207,11 @@ func (g *grid) flush(f *excelize.File) error {
 	sort.Ints(rows)
 	for _, r := range rows {
 		cell, _ := excelize.CoordinatesToCellName(1, r)
-		if err := sw.SetRow(cell, g.rows[r]); err != nil {
+		var opts []excelize.RowOpts
+		if h := g.heights[r]; h > 0 {
+			opts = append(opts, excelize.RowOpts{Height: h})
+		}
+		if err := sw.SetRow(cell, g.rows[r], opts...); err != nil {
 			return err
 		}
 	}

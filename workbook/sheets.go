@@ -120,6 +120,7 @@ func (b *builder) summarySheet() error {
 	for _, c := range cs {
 		g.text(1, row, strings.ToUpper(string(c.Severity))+": "+c.Code, b.st.severity(c.Severity))
 		g.text(2, row, c.Message, b.st.textWrap)
+		g.fit(row, c.Message, 98)
 		g.merges = append(g.merges, [2]string{cellName(2, row), cellName(4, row)})
 		row++
 	}
@@ -489,6 +490,7 @@ func (b *builder) cautionsSheet() error {
 		g.text(1, row, string(c.Severity), st)
 		g.text(2, row, c.Code, st)
 		g.text(3, row, c.Message, b.st.textWrap)
+		g.fit(row, c.Message, 90)
 		row++
 	}
 	if len(b.r.Cautions) == 0 {
@@ -514,6 +516,8 @@ func (b *builder) methodSheet() error {
 		g.text(1, row, m.Topic, b.st.label)
 		g.text(2, row, m.Method, b.st.textWrap)
 		g.text(3, row, m.Source, b.st.textWrap)
+		g.fit(row, m.Method, 50)
+		g.fit(row, m.Source, 70)
 		row++
 	}
 	if len(b.r.Notes) > 0 {
