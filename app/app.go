@@ -120,12 +120,9 @@ func Size(opt SizeOptions, stdout, stderr io.Writer) error {
 			return err
 		}
 	}
-	r, err := run(opt.Project, opt.Weather, opt.Seed, opt.Years, opt.Quiet, stderr, false)
+	r, err := run(opt.Project, opt.Weather, opt.Seed, opt.Years, opt.Quiet, stderr, false, opt.Hourly)
 	if err != nil {
 		return err
-	}
-	if opt.Hourly {
-		r.Hourly = true
 	}
 	if opt.Out != "" {
 		if err := workbook.WriteFile(opt.Out, r, workbook.Options{Hourly: r.Hourly, ToolVersion: Version}); err != nil {
@@ -156,7 +153,7 @@ type CurvesOptions struct {
 
 // Curves prints the isoreliability curves of a project.
 func Curves(opt CurvesOptions, stdout, stderr io.Writer) error {
-	r, err := run(opt.Project, opt.Weather, opt.Seed, opt.Years, opt.Quiet, stderr, true)
+	r, err := run(opt.Project, opt.Weather, opt.Seed, opt.Years, opt.Quiet, stderr, true, false)
 	if err != nil {
 		return err
 	}
@@ -186,12 +183,12 @@ func Curves(opt CurvesOptions, stdout, stderr io.Writer) error {
 	return nil
 }
 
-func run(path, weatherPath string, seed *uint64, years *int, quiet bool, stderr io.Writer, curves bool) (*report.Report, error) {
+func run(path, weatherPath string, seed *uint64, years *int, quiet bool, stderr io.Writer, curves, hourly bool) (*report.Report, error) {
 	p, err := LoadProject(path, weatherPath)
 	if err != nil {
 		return nil, err
 	}
-	opt := simulate.Options{ToolVersion: Version, Seed: seed, Years: years, Curves: curves}
+	opt := simulate.Options{ToolVersion: Version, Seed: seed, Years: years, Curves: curves, Hourly: hourly}
 	if p.Site.WeatherFile != "" {
 		s, err := weather.ReadFile(p.Site.WeatherFile)
 		if err != nil {

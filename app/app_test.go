@@ -336,3 +336,24 @@ func TestResourceContract(t *testing.T) {
 		t.Errorf("11 GHI values: exit %d", Code(err))
 	}
 }
+
+// TestHourlySheet: --hourly adds the hourly sheet with one row per hour of
+// the first simulated year.
+func TestHourlySheet(t *testing.T) {
+	out := filepath.Join(t.TempDir(), "h.xlsx")
+	if err := Size(SizeOptions{Project: examplePath("telecom"), Out: out, Hourly: true, Years: years(1), Quiet: true}, &bytes.Buffer{}, &bytes.Buffer{}); err != nil {
+		t.Fatal(err)
+	}
+	f, err := excelize.OpenFile(out)
+	if err != nil {
+		t.Fatal(err)
+	}
+	defer f.Close()
+	rows, err := f.GetRows("Hourly")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(rows) < 8760 {
+		t.Errorf("hourly sheet has %d rows, want at least 8760", len(rows))
+	}
+}

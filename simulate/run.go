@@ -23,6 +23,7 @@ type Options struct {
 	Years       *int            // overrides simulation.years
 	Weather     *weather.Series // a measured or typical year, run beside the synthetic ones
 	Curves      bool            // compute the isoreliability curves even without a target
+	Hourly      bool            // keep the first year's hourly series for the hourly sheet (also output.hourly)
 	// Progress is told how far the simulation has gone (may be nil).
 	Progress func(done, total int)
 }
@@ -87,7 +88,7 @@ func Run(p *schema.Project, opt Options) (*report.Report, error) {
 	}
 	r := &report.Report{
 		Tool: "solstand", ToolVersion: opt.ToolVersion, Project: p.Name, Client: p.Client, PreparedBy: p.PreparedBy,
-		Date: p.Output.Date, Paper: p.Output.Paper, Hourly: *p.Output.Hourly, CodesNote: caution.CodesNote,
+		Date: p.Output.Date, Paper: p.Output.Paper, Hourly: *p.Output.Hourly || opt.Hourly, CodesNote: caution.CodesNote,
 	}
 	if r.Date == "" {
 		r.Date = schema.DefaultDate
