@@ -136,12 +136,15 @@ type Array struct {
 	AzimuthDeg    float64  `json:"azimuth_deg"`
 	Derates       []Derate `json:"derates"`
 	// The sizing chain: required_w = demand / (psh × temperature × derates × controller × battery path).
-	DesignPSH           float64     `json:"design_psh_h"`        // POA of the design month, kWh/m²/day = h at 1 kW/m²
-	TemperatureFactor   float64     `json:"temperature_factor"`  // module power at design-month cell temperature / STC
-	DerateFactor        float64     `json:"derate_factor"`       // product of (1 − loss)
-	ControllerFactor    float64     `json:"controller_factor"`   // MPPT efficiency, or PWM operating-point factor
-	BatteryPathFactor   float64     `json:"battery_path_factor"` // 1 − share through battery × (1 − round-trip efficiency)
-	ShareThroughBattery float64     `json:"share_through_battery"`
+	DesignPSH           float64 `json:"design_psh_h"`        // POA of the design month, kWh/m²/day = h at 1 kW/m²
+	TemperatureFactor   float64 `json:"temperature_factor"`  // module power at design-month cell temperature / STC
+	DerateFactor        float64 `json:"derate_factor"`       // product of (1 − loss)
+	ControllerFactor    float64 `json:"controller_factor"`   // MPPT efficiency, or PWM operating-point factor
+	BatteryPathFactor   float64 `json:"battery_path_factor"` // 1 − share through battery × (1 − round-trip efficiency)
+	ShareThroughBattery float64 `json:"share_through_battery"`
+	// ReliabilityFactor multiplies the rule-based requirement where the
+	// array is sized for a loss-of-load target (1 otherwise).
+	ReliabilityFactor   float64     `json:"reliability_factor"`
 	DesignCellTempC     float64     `json:"design_cell_temp_c"`
 	RequiredW           float64     `json:"required_w"`
 	RatedW              float64     `json:"rated_w"`

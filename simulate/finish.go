@@ -54,10 +54,18 @@ func (d *run) curves() error {
 	sort.Sort(sort.Reverse(sort.Float64Slice(targets)))
 	targets = uniq(targets)
 	storage := []float64{1, 1.5, 2, 3, 4, 5, 6, 7, 8, 10}
+	if target != nil {
+		// The storage of the bank the stated autonomy asks for, the floor of
+		// the reliability sizing, is a point of every curve.
+		storage = append(storage, *d.p.Battery.AutonomyDays/(d.bsz.RateFactor*d.bsz.DischargeEfficiency))
+		sort.Float64s(storage)
+		storage = uniq(storage)
+	}
 	curves, err := IsoReliability(in, targets, storage, d.opt.Progress)
 	if err != nil {
 		return fmt.Errorf("reliability curves: %w", err)
 	}
+	d.designCA = caDesign
 	usableDesign := d.model.CapacityWh - d.model.MinWh
 	for _, c := range curves {
 		rc := report.Curve{TargetLOLP: c.TargetLOLP, Cheapest: c.Cheapest}
@@ -71,33 +79,78 @@ func (d *run) curves() error {
 		}
 		d.r.Curves = append(d.r.Curves, rc)
 		if target != nil && c.TargetLOLP == *target {
-			d.targetNote(rc)
+			d.target = &rc
 		}
 	}
 	return nil
 }
 
-// targetNote says how the rule-based design compares with the project's
-// reliability target and which configuration meets it at least cost.
-func (d *run) targetNote(c report.Curve) {
-	s := d.r.Simulation
-	if len(c.Points) == 0 {
-		d.caution(caution.Caution{Code: "lolp-target-unreachable", Severity: caution.Warning,
-			Message: fmt.Sprintf("No array of up to %.1f times the design-month load meets the loss-of-load target %.4g with 1 to 10 days of storage.", DefaultArrayToLoadMax, c.TargetLOLP)})
-		return
+// maxResizeRounds bounds the reliability sizing's rounds of sizing and
+// simulating again.
+const maxResizeRounds = 6
+
+// reliability sizes for the project's loss-of-load target: on the
+// target's isoreliability curve (Egido & Lorenzo 1992) it takes the
+// least-cost point (without prices, the one with the least storage) whose
+// storage is at least the days of autonomy the project asks for — the
+// stated autonomy stays a floor — then sizes the array and the bank for it
+// and simulates again, adding a string at a time until the simulation
+// meets the target.
+func (d *run) reliability() error {
+	t := d.p.Simulation.TargetLOLP
+	if t == nil || d.target == nil {
+		return nil
 	}
-	best := c.Cheapest
-	if best < 0 {
-		best = 0
+	c := d.target
+	b := &d.r.Battery
+	rateEff := d.bsz.RateFactor * d.bsz.DischargeEfficiency
+	floor := b.AutonomyDays / rateEff // storage C_S of the bank the autonomy days ask for
+	best := -1
+	for i, pt := range c.Points {
+		if pt.StorageDays < floor-1e-9 {
+			continue
+		}
+		if best < 0 || (c.Cheapest >= 0 && pt.Cost < c.Points[best].Cost) {
+			best = i
+		}
+	}
+	if best < 0 || d.designCA <= 0 {
+		d.caution(caution.Caution{Code: "lolp-target-unreachable", Severity: caution.Warning,
+			Message: fmt.Sprintf("No array of up to %.1f times the design-month load meets the loss-of-load target %.3g %% with %.1f to 10 days of storage; the design is sized by the rules alone.", DefaultArrayToLoadMax, 100**t, floor)})
+		return nil
 	}
 	pt := c.Points[best]
-	if s.LOLP > c.TargetLOLP {
-		d.caution(caution.Caution{Code: "lolp-target-missed", Severity: caution.Warning,
-			Message: fmt.Sprintf("The design as sized by the rules loses %.3g %% of the load in simulation, above the target %.3g %%. The curve point %s meets it: about %.0f W of array with %.1f days of storage (%.0f Wh of battery). Raise the array or the autonomy days and size again.",
-				100*s.LOLP, 100*c.TargetLOLP, map[bool]string{true: "of least cost", false: "with the least storage"}[c.Cheapest >= 0], pt.ArrayW, pt.StorageDays, pt.CapacityWh)})
-	} else {
-		d.note("The design meets the loss-of-load target %.3g %% in simulation (%.3g %%). The least-cost configuration on the target's curve: about %.0f W of array with %.1f days of storage.", 100*c.TargetLOLP, 100*s.LOLP, pt.ArrayW, pt.StorageDays)
+	ruleLOLP, ruleW, ruleAh, ruleDays := d.r.Simulation.LOLP, d.r.Array.RatedW, b.CapacityAh, b.AutonomyDays
+	days := math.Max(ruleDays, pt.StorageDays*rateEff)
+	factor := pt.ArrayToLoad / d.designCA * d.r.Array.RatedW / (d.r.Array.RequiredW / d.reliabilityFactor)
+	*d.p.Battery.AutonomyDays = days
+	for round := 0; ; round++ {
+		d.cautions, d.r.Notes = d.cautions[:d.cautionsBeforeSize], d.r.Notes[:d.notesBeforeSize]
+		d.reliabilityFactor = factor
+		if err := d.size(); err != nil {
+			return err
+		}
+		if err := d.simulate(); err != nil {
+			return err
+		}
+		if d.r.Simulation.LOLP <= *t || round == maxResizeRounds-1 {
+			break
+		}
+		// One more string than the rounding gave.
+		a := d.r.Array
+		factor *= float64(a.Strings+1) * float64(a.ModulesSeries) * a.Module.PmaxW / (a.RequiredW)
 	}
+	how := "of least cost"
+	if c.Cheapest < 0 {
+		how = "with the least storage (no prices for modules and blocks)"
+	}
+	d.note("Reliability sizing for the loss-of-load target %.3g %%: the point %s on its curve with at least the stated autonomy — %.2f days of storage, array-to-load ratio %.2f. The rules alone gave %.0f W of array and %.0f Ah (%.1f days of autonomy), %.3g %% loss of load in simulation; the design is now %.0f W and %.0f Ah (%.2f days), %.3g %%. The array chain carries a reliability factor of %.3f.",
+		100**t, how, pt.StorageDays, pt.ArrayToLoad, ruleW, ruleAh, ruleDays, 100*ruleLOLP, d.r.Array.RatedW, b.CapacityAh, b.AutonomyDays, 100*d.r.Simulation.LOLP, d.reliabilityFactor)
+	if d.r.Simulation.LOLP > *t {
+		d.caution(caution.Caution{Code: "lolp-target-missed", Severity: caution.Warning,
+			Message: fmt.Sprintf("After %d rounds of sizing the simulation still loses %.3g %% of the load, above the target %.3g %%.", maxResizeRounds, 100*d.r.Simulation.LOLP, 100**t)})
+	}
+	return nil
 }
 
 // wiring sizes the conductors and the protection.

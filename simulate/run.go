@@ -94,7 +94,8 @@ func Run(p *schema.Project, opt Options) (*report.Report, error) {
 		r.Date = schema.DefaultDate
 	}
 	d := &run{p: p, chem: chem, r: r, opt: opt}
-	steps := []func() error{d.climate, d.loadDemand, d.resource, d.size, d.simulate, d.curves, d.wiring, d.costs}
+	d.reliabilityFactor = 1
+	steps := []func() error{d.climate, d.loadDemand, d.resource, d.mark, d.size, d.simulate, d.curves, d.reliability, d.wiring, d.costs}
 	for _, s := range steps {
 		if err := s(); err != nil {
 			return nil, err
@@ -136,6 +137,19 @@ type run struct {
 	dayMonth  []int8
 	cautions  []caution.Caution
 	cableRuns []wiring.CableRun
+
+	// Reliability sizing.
+	reliabilityFactor  float64       // multiplies the rule-based array requirement (1 without a target)
+	target             *report.Curve // the curve of the project's loss-of-load target
+	designCA           float64       // array-to-load ratio of the rule-based array
+	cautionsBeforeSize int           // cautions and notes from before the sizing, kept when it is redone
+	notesBeforeSize    int
+}
+
+// mark remembers what came before the sizing, which the reliability sizing redoes.
+func (d *run) mark() error {
+	d.cautionsBeforeSize, d.notesBeforeSize = len(d.cautions), len(d.r.Notes)
+	return nil
 }
 
 func (d *run) caution(c ...caution.Caution) { d.cautions = append(d.cautions, c...) }

@@ -31,7 +31,7 @@ func shortRun(n int) Options { return Options{Years: &n} }
 // factors by the method's formulas (the same chains the workbook writes as
 // formulas): the design month is the month of the largest demand/POA ratio;
 // array.required_w = E / (PSH × temperature × derates × controller × battery
-// path); battery.required_ah = E × days / (DoD × temperature × rate ×
+// path) × the reliability factor; battery.required_ah = E × days / (DoD × temperature × rate ×
 // efficiency) / V; installed sizes are whole modules and blocks that cover
 // the required figures.
 func TestSizingChains(t *testing.T) {
@@ -53,7 +53,7 @@ func TestSizingChains(t *testing.T) {
 			}
 			E := r.Demand.DailyWh[dm-1]
 			a := r.Array
-			want := E / (a.DesignPSH * a.TemperatureFactor * a.DerateFactor * a.ControllerFactor * a.BatteryPathFactor)
+			want := E / (a.DesignPSH * a.TemperatureFactor * a.DerateFactor * a.ControllerFactor * a.BatteryPathFactor) * a.ReliabilityFactor
 			if math.Abs(a.RequiredW-want) > 1e-9*want {
 				t.Errorf("array.required_w %g, chain gives %g", a.RequiredW, want)
 			}
@@ -193,5 +193,40 @@ func TestMaterialsAddUp(t *testing.T) {
 		if math.Abs(pw-lc.NetPresentCost) > 1e-6*lc.NetPresentCost {
 			t.Errorf("%s: rows add to %g, net present cost %g", name, pw, lc.NetPresentCost)
 		}
+	}
+}
+
+// TestReliabilitySizing: with a loss-of-load target the design is sized on
+// the target's isoreliability curve and simulated again until it meets the
+// target, never with less than the stated days of autonomy.
+func TestReliabilitySizing(t *testing.T) {
+	rule, err := Run(loadExample(t, "cabin"), shortRun(4))
+	if err != nil {
+		t.Fatal(err)
+	}
+	target := rule.Simulation.LOLP / 10
+	if target <= 0 {
+		t.Fatal("the cabin example should lose some load under the rules alone")
+	}
+	p := loadExample(t, "cabin")
+	p.Simulation.TargetLOLP = &target
+	r, err := Run(p, shortRun(4))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Simulation.LOLP > target {
+		t.Errorf("loss of load %g above the target %g", r.Simulation.LOLP, target)
+	}
+	if r.Battery.AutonomyDays < rule.Battery.AutonomyDays {
+		t.Errorf("autonomy %g days below the stated %g", r.Battery.AutonomyDays, rule.Battery.AutonomyDays)
+	}
+	if r.Array.RatedW < rule.Array.RatedW && r.Battery.CapacityAh <= rule.Battery.CapacityAh {
+		t.Errorf("a tenth of the loss of load with a smaller array (%g W) and no larger bank", r.Array.RatedW)
+	}
+	if r.Array.ReliabilityFactor == 1 {
+		t.Error("the reliability factor was not set")
+	}
+	if len(r.Curves) == 0 {
+		t.Error("no curves in the report")
 	}
 }

@@ -99,6 +99,7 @@ func (d *run) size() error {
 	if err != nil {
 		return fmt.Errorf("array: %w", err)
 	}
+	asz.RequiredW *= d.reliabilityFactor
 	layout, err := array.LayoutStrings(d.module, d.ctrl, d.systemV, d.chargeV, d.recordLowC, maxCellC, asz.RequiredW)
 	if err != nil {
 		return fmt.Errorf("array: %w", err)
@@ -149,6 +150,7 @@ func (d *run) size() error {
 	ra.ShareThroughBattery = share
 	ra.DesignCellTempC = cellC
 	ra.RequiredW = asz.RequiredW
+	ra.ReliabilityFactor = d.reliabilityFactor
 	ra.RatedW = ratedW
 	ra.Modules, ra.ModulesSeries, ra.Strings = layout.Modules, layout.ModulesSeries, layout.Strings
 	ra.VocColdV, ra.VmpHotV, ra.MaxCellTempC = layout.VocColdV, layout.VmpHotV, maxCellC

@@ -6,6 +6,8 @@ import (
 	"strings"
 
 	"github.com/xuri/excelize/v2"
+
+	"solstand/report"
 )
 
 // The Inputs sheet: every editable input in one styled, unlocked cell with a
@@ -395,7 +397,8 @@ func (b *builder) arraySheet() error {
 		{"Derate factor", "array_derate_factor", derate, a.DerateFactor, b.st.calc, "factor", "Product of (1 − loss) over the losses on the Inputs sheet."},
 		{"Controller factor (engine)", "array_controller_factor", "", a.ControllerFactor, b.st.value, "factor", "MPPT tracking efficiency, or the PWM operating-point factor."},
 		{"Battery path factor (engine)", "array_battery_path_factor", "", a.BatteryPathFactor, b.st.value, "factor", fmt.Sprintf("1 − share through the battery (%.2f) × (1 − round-trip efficiency).", a.ShareThroughBattery)},
-		{"Array power required", "array_required_w", "daily_demand_wh/(design_poa_kwh_m2_day*array_temperature_factor*array_derate_factor*array_controller_factor*array_battery_path_factor)", a.RequiredW, b.st.result, "W", "Demand / (irradiation × all factors), before rounding to whole modules."},
+		{"Reliability factor (engine)", "array_reliability_factor", "", reliabilityFactor(a), b.st.value, "factor", "Sizing for the loss-of-load target: the simulated array over the rule-based one (1 without a target)."},
+		{"Array power required", "array_required_w", "daily_demand_wh/(design_poa_kwh_m2_day*array_temperature_factor*array_derate_factor*array_controller_factor*array_battery_path_factor)*array_reliability_factor", a.RequiredW, b.st.result, "W", "Demand / (irradiation × all factors) × reliability factor, before rounding to whole modules."},
 		{"Parallel strings", "array_strings", "MAX(1,CEILING(array_required_w/(module_pmax_w*modules_series),1))", float64(a.Strings), b.st.resultInt, "strings", "Whole strings of modules_series modules."},
 		{"Modules", "array_modules", "array_strings*modules_series", float64(a.Modules), b.st.resultInt, "modules", ""},
 		{"Array rated power", "array_rated_w", "array_strings*modules_series*module_pmax_w", a.RatedW, b.st.result, "W", "Installed rated power at STC."},
@@ -755,4 +758,12 @@ func capitalCell(capital, materials float64, valueStyle, calcStyle int, cur stri
 		return chainCell{"Capital (equipment)", "", "materials_total", capital, calcStyle, cur, "The materials total above."}
 	}
 	return chainCell{"Capital (equipment)", "", "", capital, valueStyle, cur, "Engine value."}
+}
+
+// reliabilityFactor is the report's factor, 1 where none was set.
+func reliabilityFactor(a report.Array) float64 {
+	if a.ReliabilityFactor > 0 {
+		return a.ReliabilityFactor
+	}
+	return 1
 }
