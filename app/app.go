@@ -10,7 +10,9 @@ import (
 	"io"
 	"os"
 	"path/filepath"
+	"strconv"
 	"strings"
+	"time"
 
 	"solstand/examples"
 	"solstand/report"
@@ -187,6 +189,12 @@ func run(path, weatherPath string, seed *uint64, years *int, quiet bool, stderr 
 	p, err := LoadProject(path, weatherPath)
 	if err != nil {
 		return nil, err
+	}
+	if p.Output.Date == "" {
+		// Reproducible builds' convention: the document date from SOURCE_DATE_EPOCH.
+		if sec, err := strconv.ParseInt(os.Getenv("SOURCE_DATE_EPOCH"), 10, 64); err == nil {
+			p.Output.Date = time.Unix(sec, 0).UTC().Format("2006-01-02")
+		}
 	}
 	opt := simulate.Options{ToolVersion: Version, Seed: seed, Years: years, Curves: curves, Hourly: hourly}
 	if p.Site.WeatherFile != "" {

@@ -357,3 +357,34 @@ func TestHourlySheet(t *testing.T) {
 		t.Errorf("hourly sheet has %d rows, want at least 8760", len(rows))
 	}
 }
+
+// TestSourceDateEpoch: without output.date, the workbook's date comes from
+// SOURCE_DATE_EPOCH (the reproducible-builds convention).
+func TestSourceDateEpoch(t *testing.T) {
+	t.Setenv("SOURCE_DATE_EPOCH", "1767225600") // 2026-01-01T00:00:00Z
+	dir := t.TempDir()
+	src, _ := os.ReadFile(examplePath("telecom"))
+	doc := strings.Replace(string(src), `"date": "2026-12-01"`, `"paper": "letter"`, 1)
+	doc = strings.Replace(doc, `"output": {"paper": "letter", "paper": "letter"}`, `"output": {"paper": "letter"}`, 1)
+	in := filepath.Join(dir, "t.json")
+	_ = os.WriteFile(in, []byte(doc), 0o644)
+	p, err := LoadProject(in, "")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if p.Output.Date != "" {
+		t.Fatalf("the test document still has a date %q", p.Output.Date)
+	}
+	r, err := run(in, "", nil, years(1), true, &bytes.Buffer{}, false, false)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Date != "2026-01-01" {
+		t.Errorf("date %q, want 2026-01-01", r.Date)
+	}
+	t.Setenv("SOURCE_DATE_EPOCH", "1780000000") // 2026-05-28
+	r, _ = run(in, "", nil, years(1), true, &bytes.Buffer{}, false, false)
+	if r.Date != "2026-05-28" {
+		t.Errorf("date %q, want 2026-05-28", r.Date)
+	}
+}

@@ -236,6 +236,6 @@ type Simulation struct {
 // Output holds options of the workbook.
 type Output struct {
 	Paper  string `json:"paper,omitempty" jsonschema:"description=Paper size for printing: a4 or letter (default a4),enum=a4,enum=letter"`
-	Date   string `json:"date,omitempty" jsonschema:"description=Document date YYYY-MM-DD written into the workbook (default: SOURCE_DATE_EPOCH or 2026-01-01 so output repeats)"`
+	Date   string `json:"date,omitempty" jsonschema:"description=Document date YYYY-MM-DD written into the workbook (default: the date of SOURCE_DATE_EPOCH where set\\, else 2026-01-01\\, so that output repeats)"`
 	Hourly *bool  `json:"hourly,omitempty" jsonschema:"description=Add the hourly sheet of the first simulated year (default false)"`
 }
