@@ -173,6 +173,11 @@ func (g *grid) formula(col, row int, f string, cached float64, style int) {
 func (g *grid) headers(row int, style int, hs ...string) {
 	for i, h := range hs {
 		g.text(i+1, row, h, style)
+		w := g.widths[i+1]
+		if w == 0 {
+			w = 9 // the spreadsheet's default column width
+		}
+		g.fit(row, h, w)
 	}
 }
 

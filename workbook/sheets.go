@@ -224,7 +224,7 @@ func (b *builder) dailySheet() error {
 	for _, h := range mhead {
 		row = append(row, excelize.Cell{Value: h, StyleID: st.header})
 	}
-	if err := sw.SetRow("A3", row); err != nil {
+	if err := sw.SetRow("A3", row, excelize.RowOpts{Height: 45}); err != nil { // three lines of wrapped header
 		return err
 	}
 	n := len(days)
