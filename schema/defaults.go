@@ -63,7 +63,7 @@ func setF(p **float64, v float64) {
 // ApplyChemistryDefaults, which the engine calls with the built-in data.
 func ApplyDefaults(p *Project) {
 	s := &p.Site
-	if s.UTCOffsetH == nil {
+	if s.UTCOffsetH == nil && !s.LocationFromWeather {
 		s.UTCOffsetH = f(math.Round(s.LongitudeDeg / 15))
 	}
 	setF(&s.AlbedoFrac, DefaultAlbedo)
@@ -105,7 +105,7 @@ func ApplyDefaults(p *Project) {
 	if !a.TiltDeg.Set {
 		a.TiltDeg = Automatic("optimise")
 	}
-	if a.AzimuthDeg == nil {
+	if a.AzimuthDeg == nil && !s.LocationFromWeather {
 		if s.LatitudeDeg >= 0 {
 			a.AzimuthDeg = f(180)
 		} else {

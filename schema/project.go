@@ -28,12 +28,16 @@ type Project struct {
 
 // Site is where the system stands and its climate.
 type Site struct {
-	Name         string   `json:"name" jsonschema:"description=Site name"`
-	LatitudeDeg  float64  `json:"latitude_deg" jsonschema:"description=Latitude in degrees (north positive),minimum=-90,maximum=90"`
-	LongitudeDeg float64  `json:"longitude_deg" jsonschema:"description=Longitude in degrees (east positive),minimum=-180,maximum=180"`
-	ElevationM   float64  `json:"elevation_m,omitempty" jsonschema:"description=Elevation above sea level in metres"`
-	UTCOffsetH   *float64 `json:"utc_offset_h,omitempty" jsonschema:"description=Standard time zone offset from UTC in hours (default: longitude / 15 rounded)"`
-	AlbedoFrac   *float64 `json:"ground_albedo,omitempty" jsonschema:"description=Ground reflectance 0..1 (default 0.2; fresh snow 0.7-0.9)"`
+	Name         string  `json:"name" jsonschema:"description=Site name"`
+	LatitudeDeg  float64 `json:"latitude_deg" jsonschema:"description=Latitude in degrees (north positive); may be left out when a weather file gives the location,minimum=-90,maximum=90"`
+	LongitudeDeg float64 `json:"longitude_deg" jsonschema:"description=Longitude in degrees (east positive); may be left out when a weather file gives the location,minimum=-180,maximum=180"`
+	// LocationFromWeather is set when the document gives no location and
+	// the weather file's is used; ApplyDefaults then leaves the defaults
+	// that depend on the location for the engine to fill once it is known.
+	LocationFromWeather bool     `json:"-"`
+	ElevationM          float64  `json:"elevation_m,omitempty" jsonschema:"description=Elevation above sea level in metres"`
+	UTCOffsetH          *float64 `json:"utc_offset_h,omitempty" jsonschema:"description=Standard time zone offset from UTC in hours (default: longitude / 15 rounded)"`
+	AlbedoFrac          *float64 `json:"ground_albedo,omitempty" jsonschema:"description=Ground reflectance 0..1 (default 0.2; fresh snow 0.7-0.9)"`
 	// GHIKWhM2Day holds the monthly means of daily global horizontal irradiation.
 	GHIKWhM2Day []float64 `json:"ghi_kwh_m2_day,omitempty" jsonschema:"description=Monthly means of daily global horizontal irradiation January..December in kWh/m²/day (12 values; or give a weather file)"`
 	AirTempC    []float64 `json:"air_temp_c,omitempty" jsonschema:"description=Monthly mean air temperature January..December in °C (12 values)"`

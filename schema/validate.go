@@ -8,6 +8,7 @@ import (
 	"io"
 	"math"
 	"reflect"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -78,6 +79,14 @@ func DecodeWith(data []byte, opt DecodeOptions) (*Project, error) {
 		return nil, Problems{{Path: "loads", Message: fmt.Sprintf("has %d entries; the limit is %d", n, MaxLoads)}}
 	}
 	sps := structural(data)
+	locationFromWeather := false
+	if opt.WeatherFile != "" || siteHas(data, "weather_file") {
+		// The location may come from the weather file instead.
+		if !siteHas(data, "latitude_deg") && !siteHas(data, "longitude_deg") {
+			sps = dropRequired(sps, "site.latitude_deg", "site.longitude_deg")
+			locationFromWeather = true
+		}
+	}
 	var p Project
 	dec := json.NewDecoder(bytes.NewReader(data))
 	if len(sps) == 0 {
@@ -92,6 +101,7 @@ func DecodeWith(data []byte, opt DecodeOptions) (*Project, error) {
 	if opt.WeatherFile != "" {
 		p.Site.WeatherFile = opt.WeatherFile
 	}
+	p.Site.LocationFromWeather = locationFromWeather
 	ApplyDefaults(&p)
 	// The physical checks run even when the schema found problems, so that
 	// every problem comes out in one pass; a check at or below a path the
@@ -475,4 +485,28 @@ func levenshtein(a, b string) int {
 		prev, cur = cur, prev
 	}
 	return prev[len(rb)]
+}
+
+// siteHas tells whether the document's site object has a key.
+func siteHas(data []byte, key string) bool {
+	var top struct {
+		Site map[string]json.RawMessage `json:"site"`
+	}
+	if json.Unmarshal(data, &top) != nil {
+		return false
+	}
+	_, ok := top.Site[key]
+	return ok
+}
+
+// dropRequired removes the "is required" problems of the given paths.
+func dropRequired(ps Problems, paths ...string) Problems {
+	out := ps[:0:0]
+	for _, p := range ps {
+		if p.Message == "is required" && slices.Contains(paths, p.Path) {
+			continue
+		}
+		out = append(out, p)
+	}
+	return out
 }

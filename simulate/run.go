@@ -174,15 +174,23 @@ func (d *run) climate() error {
 		} else if len(s.AirTempC) != 12 {
 			return errors.New("the weather file has no air temperature and the project gives no site.air_temp_c")
 		}
-		schema.ApplyDefaults(d.p) // record low/high from the file's temperatures where the project gives none
-		if w.Location.Known {
-			if s.LatitudeDeg == 0 && s.LongitudeDeg == 0 {
-				s.LatitudeDeg, s.LongitudeDeg = w.Location.LatitudeDeg, w.Location.LongitudeDeg
-				d.note("The site's location is taken from the weather file.")
-			} else {
-				d.caution(weather.CheckLocation(w.Location, s.LatitudeDeg, s.LongitudeDeg, 10)...)
+		if s.LocationFromWeather {
+			if !w.Location.Known {
+				return errors.New("site.latitude_deg: the project gives no location and the weather file has none (a CSV file carries no coordinates)")
 			}
+			s.LatitudeDeg, s.LongitudeDeg = w.Location.LatitudeDeg, w.Location.LongitudeDeg
+			if s.UTCOffsetH == nil {
+				s.UTCOffsetH = &w.Location.UTCOffsetH
+			}
+			if s.ElevationM == 0 {
+				s.ElevationM = w.Location.ElevationM
+			}
+			s.LocationFromWeather = false
+			d.note("The site's location (%.4f°, %.4f°, UTC%+g h) is taken from the weather file.", s.LatitudeDeg, s.LongitudeDeg, *s.UTCOffsetH)
+		} else if w.Location.Known {
+			d.caution(weather.CheckLocation(w.Location, s.LatitudeDeg, s.LongitudeDeg, 10)...)
 		}
+		schema.ApplyDefaults(d.p) // record low/high from the file's temperatures, and what depends on the location
 		if w.FilledHours > 0 || w.FilledDays > 0 {
 			d.note("Weather file: %d hours and %d days filled in short gaps from the month's mean profile.", w.FilledHours, w.FilledDays)
 		}

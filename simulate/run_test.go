@@ -230,3 +230,72 @@ func TestReliabilitySizing(t *testing.T) {
 		t.Error("no curves in the report")
 	}
 }
+
+// writeTestEPW writes an EPW file (EnergyPlus Auxiliary Programs, weather
+// data chapter: LOCATION header, 8 header lines, hour-ending records) for an
+// invented site whose every day has a clear-sky-like bell of irradiance.
+func writeTestEPW(t *testing.T, latDeg, lonDeg, tz float64) string {
+	t.Helper()
+	var b strings.Builder
+	fmt.Fprintf(&b, "LOCATION,Invented Ridge,None,Nowhere,test,000000,%g,%g,%g,1200\n", latDeg, lonDeg, tz)
+	b.WriteString("DESIGN CONDITIONS,0\nTYPICAL/EXTREME PERIODS,0\nGROUND TEMPERATURES,0\nHOLIDAYS/DAYLIGHT SAVINGS,No,0,0,0\nCOMMENTS 1,invented\nCOMMENTS 2,\nDATA PERIODS,1,1,Data,Sunday, 1/ 1,12/31\n")
+	for di := range 365 {
+		m, d := weather.DayOfYearMonth(di)
+		for h := range 24 {
+			g := 0.0
+			if h >= 6 && h < 18 {
+				g = 600 * math.Sin(math.Pi*(float64(h)+0.5-6)/12)
+			}
+			fmt.Fprintf(&b, "2025,%d,%d,%d,60,?9?9?9?9E0?9?9?9?9?9?9?9?9?9?9?9?9?9?9?9*9*9?9?9?9,%g,10.0,60,101300,9999,9999,380,%g,%g,%g,999999,999999,999999,9999,180,3.0,5,5,777.7,77777,9,999999999,20,0.1,0,88,0.2,0,1\r\n",
+				m, d, h+1, 15+5*math.Sin(math.Pi*float64(h-9)/12), g, g*0.6, g*0.4)
+		}
+	}
+	path := filepath.Join(t.TempDir(), "site.epw")
+	if err := os.WriteFile(path, []byte(b.String()), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	return path
+}
+
+// TestLocationFromWeatherFile: a project that gives no location takes the
+// weather file's (issue: weather files), with its time zone and the
+// equator-facing azimuth that follows from it; without a weather file the
+// location is required.
+func TestLocationFromWeatherFile(t *testing.T) {
+	src, err := os.ReadFile(filepath.Join("..", "examples", "telecom.json"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	doc := strings.Replace(string(src), `"latitude_deg": 38.6,
+    "longitude_deg": -106.3,`, "", 1)
+	doc = strings.Replace(doc, `"utc_offset_h": -7,`, "", 1)
+	doc = strings.Replace(doc, `"tilt_deg": 60,
+    "azimuth_deg": 180,`, `"tilt_deg": 40,`, 1)
+	if _, err := schema.Decode([]byte(doc)); err == nil || !strings.Contains(err.Error(), "site.latitude_deg: is required") {
+		t.Fatalf("without a weather file the location must be required, got %v", err)
+	}
+	path := writeTestEPW(t, -33.5, 151.2, 10)
+	p, err := schema.DecodeWith([]byte(doc), schema.DecodeOptions{WeatherFile: path})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := weather.ReadFile(path)
+	if err != nil {
+		t.Fatal(err)
+	}
+	o := shortRun(1)
+	o.Weather = &s
+	r, err := Run(p, o)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Site.LatitudeDeg != -33.5 || r.Site.LongitudeDeg != 151.2 || r.Site.UTCOffsetH != 10 {
+		t.Errorf("site %g, %g, UTC%+g; want the file's -33.5, 151.2, +10", r.Site.LatitudeDeg, r.Site.LongitudeDeg, r.Site.UTCOffsetH)
+	}
+	if r.Array.AzimuthDeg != 0 {
+		t.Errorf("azimuth %g: a southern site's array faces north (0)", r.Array.AzimuthDeg)
+	}
+	if r.Simulation.Measured == nil {
+		t.Error("no measured year")
+	}
+}
