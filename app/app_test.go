@@ -388,3 +388,64 @@ func TestSourceDateEpoch(t *testing.T) {
 		t.Errorf("date %q, want 2026-05-28", r.Date)
 	}
 }
+
+// TestCurvesCommand: `curves --json` gives one curve per target (10 %, 1 %,
+// 0.1 %) whose points meet their target, and loss of load falls as storage
+// grows along a curve's array-to-load ratio (Egido & Lorenzo 1992: the
+// isoreliability curve trades array for storage).
+func TestCurvesCommand(t *testing.T) {
+	var out bytes.Buffer
+	if err := Curves(CurvesOptions{Project: examplePath("cabin"), JSON: true, Years: years(3), Quiet: true}, &out, &bytes.Buffer{}); err != nil {
+		t.Fatal(err)
+	}
+	var v struct {
+		Curves []struct {
+			TargetLOLP float64 `json:"target_lolp"`
+			Points     []struct {
+				StorageDays float64 `json:"storage_days"`
+				ArrayToLoad float64 `json:"array_to_load"`
+				LOLP        float64 `json:"loss_of_load_probability"`
+			} `json:"points"`
+		} `json:"curves"`
+	}
+	if err := json.Unmarshal(out.Bytes(), &v); err != nil {
+		t.Fatal(err)
+	}
+	if len(v.Curves) != 3 {
+		t.Fatalf("%d curves, want 3", len(v.Curves))
+	}
+	for _, c := range v.Curves {
+		if len(c.Points) == 0 {
+			t.Errorf("target %g: no points", c.TargetLOLP)
+		}
+		for i, p := range c.Points {
+			if p.LOLP > c.TargetLOLP {
+				t.Errorf("target %g: point %d has loss of load %g", c.TargetLOLP, i, p.LOLP)
+			}
+			if i > 0 && p.ArrayToLoad > c.Points[i-1].ArrayToLoad+0.05 {
+				t.Errorf("target %g: more storage (%g days) needs a larger array (%g > %g)", c.TargetLOLP, p.StorageDays, p.ArrayToLoad, c.Points[i-1].ArrayToLoad)
+			}
+		}
+	}
+	out.Reset()
+	if err := Curves(CurvesOptions{Project: examplePath("cabin"), Years: years(2), Quiet: true}, &out, &bytes.Buffer{}); err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(out.String(), "loss-of-load target") || !strings.Contains(out.String(), "licensed practitioner") {
+		t.Errorf("text output lacks the curves or the codes note:\n%s", out.String())
+	}
+}
+
+// TestTerminalSummary: without -o or --json, size prints a summary that
+// names the design month, the equipment and the codes note.
+func TestTerminalSummary(t *testing.T) {
+	var out bytes.Buffer
+	if err := Size(SizeOptions{Project: examplePath("clinic"), Years: years(1), Quiet: true}, &out, &bytes.Buffer{}); err != nil {
+		t.Fatal(err)
+	}
+	for _, want := range []string{"Design month:", "Array:", "Battery:", "Controller:", "Inverter:", "Simulation:", "licensed practitioner"} {
+		if !strings.Contains(out.String(), want) {
+			t.Errorf("summary lacks %q:\n%s", want, out.String())
+		}
+	}
+}
