@@ -176,8 +176,9 @@ func (b *builder) dailySheet() error {
 			{Type: "cell", Criteria: "<", Format: &b.st.cfLow, Value: "1-max_dod"}}); err != nil {
 			return err
 		}
+		// Unmet energy of at least half a watt-hour (what the sheet shows as 1 Wh and more); float rounding leaves traces far below that.
 		if err := f.SetConditionalFormat(SheetDaily, cellName(9, first)+":"+cellName(9, last), []excelize.ConditionalFormatOptions{
-			{Type: "cell", Criteria: ">", Format: &b.st.cfUnmet, Value: "0"}}); err != nil {
+			{Type: "cell", Criteria: ">", Format: &b.st.cfUnmet, Value: "0.5"}}); err != nil {
 			return err
 		}
 		if err := f.AddChart(SheetDaily, "P18", &excelize.Chart{
