@@ -157,14 +157,28 @@ func (in *CurveInput) Battery(cs float64) battery.Model {
 	return t
 }
 
-// lolpRunner evaluates configurations; one per goroutine.
+// lolpRunner evaluates configurations; one per goroutine. It needs no day
+// records: runTotals keeps only the sums the LOLP is made of, over demand
+// tables built once.
 type lolpRunner struct {
 	in   *CurveInput
-	days []Day
+	tb   demandTables
+	ctrl controller
+
+	// For column: the PV split of one year at one scale, and one battery
+	// per storage.
+	split []daySplit
+	ms    []battery.Model
+	ks    []fastBattery
+	fast  []bool
+	sts   []fastState
+	ts    []totals
 }
 
 func newRunner(in *CurveInput) *lolpRunner {
-	return &lolpRunner{in: in, days: make([]Day, len(in.DayMonth))}
+	r := &lolpRunner{in: in, ctrl: controllerOf(&in.Params)}
+	r.tb.fill(in.Demand)
+	return r
 }
 
 // lolp simulates every year in turn, the battery carried over from year to
@@ -182,15 +196,57 @@ func (r *lolpRunner) lolpUpTo(ca, cs, limit float64) (lolp float64, exact bool) 
 	in := r.in
 	m := in.Battery(cs)
 	scale := in.ArrayScale(ca)
-	var led Ledger
+	var t totals
 	years := float64(len(in.PVUnitWh))
 	for y, pv := range in.PVUnitWh {
-		RunDays(pv, scale, in.DayMonth, in.Demand, &in.Params, &m, &led, r.days, nil)
-		if total := led.DemandWh / float64(y+1) * years; y+1 < len(in.PVUnitWh) && led.UnmetWh > limit*total*(1+1e-9) {
-			return led.UnmetWh / total, false
+		runTotals(pv, scale, in.DayMonth, &r.tb, r.ctrl, &m, &t)
+		if total := t.demandWh / float64(y+1) * years; y+1 < len(in.PVUnitWh) && t.unmetWh > limit*total*(1+1e-9) {
+			return t.unmetWh / total, false
 		}
 	}
-	return ratio(led.UnmetWh, led.DemandWh), true
+	return ratio(t.unmetWh, t.demandWh), true
+}
+
+// column returns in lolps[i] the lolp of array-to-load ca at storage
+// cs[i], for every i, with exactly the arithmetic of lolp: each year's PV
+// split between loads and battery (which does not depend on the battery)
+// is made once for the whole column.
+func (r *lolpRunner) column(ca float64, cs []float64, lolps []float64) {
+	in := r.in
+	scale := sanitiseScale(in.ArrayScale(ca))
+	r.ms, r.ks, r.fast, r.sts, r.ts = r.ms[:0], r.ks[:0], r.fast[:0], r.sts[:0], r.ts[:0]
+	for _, c := range cs {
+		m := in.Battery(c)
+		k, ok := fastBatteryOf(&m)
+		r.ms, r.ks, r.fast, r.sts, r.ts = append(r.ms, m), append(r.ks, k), append(r.fast, ok), append(r.sts, stateOf(&m)), append(r.ts, totals{})
+	}
+	nd := len(in.DayMonth)
+	if cap(r.split) < nd {
+		r.split = make([]daySplit, nd)
+	}
+	split := r.split[:nd]
+	for _, pv := range in.PVUnitWh {
+		for di, mo := range in.DayMonth {
+			cDay, nDay := r.tb.day(mo)
+			split[di].fill(pv[di*HoursPerDay:], scale, cDay, nDay, r.ctrl)
+		}
+		for i := range r.ms {
+			k, st, m, t := &r.ks[i], &r.sts[i], &r.ms[i], &r.ts[i]
+			for di, mo := range in.DayMonth {
+				cDay, nDay := r.tb.day(mo)
+				var servedC, servedN float64
+				if r.fast[i] {
+					servedC, servedN = k.day(st, &split[di], cDay, nDay)
+				} else {
+					servedC, servedN = dayByCalls(m, &split[di], cDay, nDay)
+				}
+				t.add(servedC, servedN, r.tb.dayDemand[mo-1])
+			}
+		}
+	}
+	for i, t := range r.ts {
+		lolps[i] = ratio(t.unmetWh, t.demandWh)
+	}
 }
 
 // checkAxis rejects non-finite or negative grid values.
@@ -236,22 +292,36 @@ func LOLPGridProgress(in *CurveInput, arrayToLoad, storageDays []float64, progre
 	if total == 0 {
 		return out, nil
 	}
-	workers = min(workers, total)
-	jobs := make(chan int, total)
-	for k := 0; k < total; k++ {
-		jobs <- k
+	// A job is a run of storages at one array-to-load ratio (column shares
+	// the PV split among them): whole columns, unless there are too few of
+	// them to keep every worker busy.
+	ns := len(storageDays)
+	chunks := min(ns, (2*workers+na-1)/na)
+	per := (ns + chunks - 1) / chunks
+	type job struct{ j, i0, i1 int }
+	jobs := make(chan job, na*chunks)
+	for j := 0; j < na; j++ {
+		for i0 := 0; i0 < ns; i0 += per {
+			jobs <- job{j, i0, min(i0+per, ns)}
+		}
 	}
 	close(jobs)
-	doneCh := make(chan struct{}, workers)
+	workers = min(workers, len(jobs))
+	doneCh := make(chan struct{}, total)
 	var wg sync.WaitGroup
 	for w := 0; w < workers; w++ {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			r := newRunner(in)
-			for k := range jobs {
-				flat[k] = r.lolp(arrayToLoad[k%na], storageDays[k/na])
-				doneCh <- struct{}{}
+			col := make([]float64, per)
+			for jb := range jobs {
+				c := col[:jb.i1-jb.i0]
+				r.column(arrayToLoad[jb.j], storageDays[jb.i0:jb.i1], c)
+				for i, l := range c {
+					flat[(jb.i0+i)*na+jb.j] = l
+					doneCh <- struct{}{}
+				}
 			}
 		}()
 	}

@@ -3,6 +3,8 @@ package simulate
 import (
 	"math"
 	"testing"
+
+	"solstand/battery"
 )
 
 // curveInput builds a demo CurveInput of the given number of years (each a
@@ -247,5 +249,52 @@ func BenchmarkIsoReliability(b *testing.B) {
 		if _, err := IsoReliability(in, []float64{0.1, 0.01, 0.001}, storage, nil); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// TestLOLPGridMatchesRunDays: every point of the grid, whichever way the
+// grid is cut into jobs (whole columns, or runs of storages when there are
+// fewer array-to-load ratios than workers) and whichever battery path runs
+// (inline steps, or the battery.Model methods for a template with a
+// non-finite figure), equals unmet / demand of a direct RunDays run of
+// that configuration over the years in turn, bit for bit.
+func TestLOLPGridMatchesRunDays(t *testing.T) {
+	tests := []struct {
+		name    string
+		ca, cs  []float64
+		workers int
+		tweak   func(m *battery.Model)
+	}{
+		{"columns", []float64{0.4, 0.9, 1.7}, []float64{0.5, 2, 6}, 2, func(*battery.Model) {}},
+		{"runs of storages", []float64{1.1}, []float64{0.3, 1, 2.5, 5, 9}, 4, func(*battery.Model) {}},
+		{"limits and shedding", []float64{0.7, 2}, []float64{1, 3}, 2, func(m *battery.Model) {
+			m.MaxChargeW, m.MaxDischargeW = 300, 500
+			m.NonCriticalMinWh, m.NonCriticalReconnectWh = 0.7*m.CapacityWh, 0.8*m.CapacityWh
+		}},
+		{"method path", []float64{0.8, 1.5}, []float64{1, 4}, 3, func(m *battery.Model) { m.MaxDischargeW = math.Inf(1) }},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			in := curveInput(2)
+			in.Workers = tt.workers
+			tt.tweak(&in.BatteryTemplate)
+			g, err := LOLPGrid(in, tt.ca, tt.cs)
+			if err != nil {
+				t.Fatal(err)
+			}
+			days := make([]Day, len(in.DayMonth))
+			for i, cs := range tt.cs {
+				for j, ca := range tt.ca {
+					m := in.Battery(cs)
+					var led Ledger
+					for _, pv := range in.PVUnitWh {
+						RunDays(pv, in.ArrayScale(ca), in.DayMonth, in.Demand, &in.Params, &m, &led, days, nil)
+					}
+					if want := led.UnmetWh / led.DemandWh; g[i][j] != want {
+						t.Errorf("C_S %g C_A %g: grid %g, direct run %g", cs, ca, g[i][j], want)
+					}
+				}
+			}
+		})
 	}
 }

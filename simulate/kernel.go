@@ -176,49 +176,20 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 		n = min(n, len(soc)/HoursPerDay)
 	}
 
-	eff := p.ControllerEfficiency
-	if !(eff > 0) {
-		eff = 0
-	} else if eff > 1 {
-		eff = 1
-	}
-	invEff := 0.0
-	if eff > 0 {
-		invEff = 1 / eff
-	}
-	maxOut := p.ControllerMaxOutWh
-	if !(maxOut > 0) {
-		maxOut = math.Inf(1)
-	}
-	if !(scale > 0) || math.IsInf(scale, 0) {
-		scale = 0
-	}
+	c := controllerOf(p)
+	eff, invEff, maxOut := c.eff, c.invEff, c.maxOut
+	scale = sanitiseScale(scale)
 
 	// Flat per-month, per-hour tables, sanitised once per call.
-	var crit, nonc, invFrac [12 * HoursPerDay]float64
-	var dayDemand [12]float64
-	for mo := 0; mo < 12; mo++ {
-		for h := 0; h < HoursPerDay; h++ {
-			i := mo*HoursPerDay + h
-			c, nc, inv := d.CriticalWh[mo][h], d.NonCriticalWh[mo][h], d.InverterLossWh[mo][h]
-			if !(c > 0) || math.IsInf(c, 0) {
-				c = 0
-			}
-			if !(nc > 0) || math.IsInf(nc, 0) {
-				nc = 0
-			}
-			crit[i], nonc[i] = c, nc
-			dayDemand[mo] += c + nc
-			if dem := c + nc; dem > 0 && inv > 0 && !math.IsInf(inv, 0) {
-				invFrac[i] = min(inv, dem) / dem
-			}
-		}
-	}
+	var tb demandTables
+	tb.fill(d)
+	crit, nonc, invFrac, dayDemand := &tb.crit, &tb.nonc, &tb.invFrac, &tb.dayDemand
 
 	if led.isZero() {
 		led.BatteryStartWh = m.EnergyWh
 	}
 	done := 0
+	var hPV, hUsed, hOut, hSC, hSN, hLoss, hChg, hDis, hSOC [HoursPerDay]float64
 	for di := 0; di < n; di++ {
 		mo := dayMonth[di]
 		if mo < 1 || mo > 12 {
@@ -232,8 +203,8 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 
 		// The hour loop keeps only this hour's values live across the battery
 		// calls (Go's calling convention saves no registers) and records them;
-		// the day's sums follow in a second, call-free loop.
-		var hPV, hUsed, hOut, hSC, hSN, hLoss, hChg, hDis, hSOC [HoursPerDay]float64
+		// the day's sums follow in a second, call-free loop. Every hour
+		// writes every record, so the arrays need no clearing per day.
 		for h := 0; h < HoursPerDay; h++ {
 			pv := scale * pvDay[h]
 			if !(pv > 0 && pv <= math.MaxFloat64) { // NaN, negative, +Inf
@@ -259,7 +230,7 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 					used = pv
 				}
 			}
-			hPV[h], hUsed[h], hOut[h], hChg[h] = pv, used, out, acc
+			hPV[h], hUsed[h], hOut[h], hChg[h], hDis[h] = pv, used, out, acc, 0
 			if rc, rn := dc-sc, dn-sn; rc > 0 || rn > 0 {
 				bc, bn, loss := m.Discharge(rc, rn, 1)
 				sc += bc
@@ -339,6 +310,405 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 	}
 	led.BatteryEndWh = m.EnergyWh
 	return done
+}
+
+// controller holds the sanitised controller figures of Params.
+type controller struct {
+	eff    float64 // 0..1
+	invEff float64 // 1 / eff, 0 when eff is 0
+	maxOut float64 // +Inf when unlimited
+}
+
+// controllerOf sanitises p as RunDays documents it.
+func controllerOf(p *Params) controller {
+	eff := p.ControllerEfficiency
+	if !(eff > 0) {
+		eff = 0
+	} else if eff > 1 {
+		eff = 1
+	}
+	invEff := 0.0
+	if eff > 0 {
+		invEff = 1 / eff
+	}
+	maxOut := p.ControllerMaxOutWh
+	if !(maxOut > 0) {
+		maxOut = math.Inf(1)
+	}
+	return controller{eff: eff, invEff: invEff, maxOut: maxOut}
+}
+
+// sanitiseScale maps a negative, NaN or infinite PV scale to 0.
+func sanitiseScale(scale float64) float64 {
+	if !(scale > 0) || math.IsInf(scale, 0) {
+		return 0
+	}
+	return scale
+}
+
+// demandTables are the demand of Demand as flat per-month, per-hour tables
+// (index (month−1)·24 + hour), negative, NaN and infinite values as 0, with
+// the inverter-loss fraction of each hour's demand and each month's daily
+// demand.
+type demandTables struct {
+	crit, nonc, invFrac [12 * HoursPerDay]float64
+	dayDemand           [12]float64
+}
+
+// fill builds the tables of d.
+func (t *demandTables) fill(d *Demand) {
+	*t = demandTables{}
+	for mo := 0; mo < 12; mo++ {
+		for h := 0; h < HoursPerDay; h++ {
+			i := mo*HoursPerDay + h
+			c, nc, inv := d.CriticalWh[mo][h], d.NonCriticalWh[mo][h], d.InverterLossWh[mo][h]
+			if !(c > 0) || math.IsInf(c, 0) {
+				c = 0
+			}
+			if !(nc > 0) || math.IsInf(nc, 0) {
+				nc = 0
+			}
+			t.crit[i], t.nonc[i] = c, nc
+			t.dayDemand[mo] += c + nc
+			if dem := c + nc; dem > 0 && inv > 0 && !math.IsInf(inv, 0) {
+				t.invFrac[i] = min(inv, dem) / dem
+			}
+		}
+	}
+}
+
+// totals are the load sums of one or many runTotals calls, in Wh.
+type totals struct {
+	servedWh, unmetWh, demandWh float64
+}
+
+// daySplit is one day of RunDays's split of the PV output: by hour, what
+// the controller output serves of the critical and the non-critical load
+// directly, and the surplus it offers to the battery. It depends on the
+// array scale but not on the battery.
+type daySplit struct {
+	sc, sn, rem [HoursPerDay]float64
+}
+
+// fill splits one day: pvDay the PV per unit of scale, cDay and nDay the
+// sanitised demand (demandTables), with RunDays's arithmetic.
+func (s *daySplit) fill(pvDay []float64, scale float64, cDay, nDay *[HoursPerDay]float64, c controller) {
+	pvDay = pvDay[:HoursPerDay]
+	eff, maxOut := c.eff, c.maxOut
+	for h := 0; h < HoursPerDay; h++ {
+		pv := scale * pvDay[h]
+		if !(pv > 0 && pv <= math.MaxFloat64) { // NaN, negative, +Inf
+			pv = 0
+		}
+		var sc, sn, rem float64
+		if pv > 0 && eff > 0 {
+			dc, dn := cDay[h], nDay[h]
+			avail := min(pv*eff, maxOut)
+			sc = min(dc, avail)
+			sn = min(dn, avail-sc)
+			rem = avail - (sc + sn)
+		}
+		s.sc[h], s.sn[h], s.rem[h] = sc, sn, rem
+	}
+}
+
+// day returns the sanitised demand of month mo (1..12) by hour.
+func (t *demandTables) day(mo int8) (c, n *[HoursPerDay]float64) {
+	base := int(mo-1) * HoursPerDay
+	return (*[HoursPerDay]float64)(t.crit[base : base+HoursPerDay]), (*[HoursPerDay]float64)(t.nonc[base : base+HoursPerDay])
+}
+
+// runTotals is RunDays without the day records, for callers that need only
+// the served, unmet and demand sums (the LOLP of the sizing curves): it
+// steps m through the same hourly balance with the same arithmetic, so m
+// ends in the same state and t.servedWh, t.unmetWh and t.demandWh grow by
+// exactly the LoadServedWh, UnmetWh and DemandWh RunDays would add to its
+// ledger. tb are the tables of the demand (demandTables.fill) and c the
+// controller (controllerOf); it returns the number of days simulated,
+// stopping at the first month out of 1..12 or when pvUnitWh is too short.
+//
+// Each day's PV split (daySplit) is made first; a battery that
+// fastBatteryOf accepts is then stepped inline (fastBattery.day), any
+// other through its methods (dayByCalls).
+func runTotals(pvUnitWh []float64, scale float64, dayMonth []int8, tb *demandTables, c controller, m *battery.Model, t *totals) int {
+	scale = sanitiseScale(scale)
+	n := min(len(dayMonth), len(pvUnitWh)/HoursPerDay)
+	k, fast := fastBatteryOf(m)
+	st := stateOf(m)
+	var sp daySplit
+	done := 0
+	for di := 0; di < n; di++ {
+		mo := dayMonth[di]
+		if mo < 1 || mo > 12 {
+			break
+		}
+		cDay, nDay := tb.day(mo)
+		sp.fill(pvUnitWh[di*HoursPerDay:], scale, cDay, nDay, c)
+		var servedC, servedN float64
+		if fast {
+			servedC, servedN = k.day(&st, &sp, cDay, nDay)
+		} else {
+			servedC, servedN = dayByCalls(m, &sp, cDay, nDay)
+		}
+		t.add(servedC, servedN, tb.dayDemand[mo-1])
+		done++
+	}
+	if fast {
+		st.store(m)
+	}
+	return done
+}
+
+// add adds one day: served from both loads, and the demand, as RunDays
+// adds them to its ledger.
+func (t *totals) add(servedC, servedN, demand float64) {
+	t.servedWh += servedC + servedN
+	t.unmetWh += demand - (servedC + servedN)
+	t.demandWh += demand
+}
+
+// dayByCalls steps m through one day of split sp with the battery.Model
+// methods, as RunDays calls them, and returns the load served from PV
+// and battery together.
+func dayByCalls(m *battery.Model, sp *daySplit, cDay, nDay *[HoursPerDay]float64) (servedC, servedN float64) {
+	for h := 0; h < HoursPerDay; h++ {
+		sc, sn := sp.sc[h], sp.sn[h]
+		if rem := sp.rem[h]; rem > 0 {
+			m.Charge(rem, 1)
+		}
+		if rc, rn := cDay[h]-sc, nDay[h]-sn; rc > 0 || rn > 0 {
+			bc, bn, _ := m.Discharge(rc, rn, 1)
+			sc += bc
+			sn += bn
+		}
+		m.SelfDischarge(1)
+		servedC += sc
+		servedN += sn
+	}
+	return servedC, servedN
+}
+
+// fastBattery holds the figures of a battery.Model, and the per-step
+// constants its methods derive from them, for fastBattery.day.
+type fastBattery struct {
+	full, minWh, reconnectWh, ncMinWh, ncReconnectWh float64
+	chargeEff, dischargeEff                          float64
+	maxChargeW, maxDischargeLimit                    float64 // limit: MaxDischargeW × 1 h, +Inf when unlimited
+	span, kneeLevel, tauLimited                      float64 // CapacityWh − KneeWh; CapacityWh − span; span / (MaxChargeW × ChargeEff)
+	decayLimited                                     float64 // e^(−1 h / tauLimited)
+	floorN                                           float64 // max(MinWh, NonCriticalMinWh)
+	minEps, ncMinEps                                 float64 // MinWh + ε, NonCriticalMinWh + ε, ε = 1e-12 × CapacityWh
+	hiEps                                            float64 // max(minEps, ncMinEps): above it, with both flags off, flags changes nothing
+	selfFrac                                         float64 // min(1, SelfDischargePerHour); 0: none
+}
+
+// fastBatteryOf returns the fastBattery of m, and whether fastBattery.day
+// may step it: every figure finite and both efficiencies above 0.
+func fastBatteryOf(m *battery.Model) (fastBattery, bool) {
+	for _, v := range [...]float64{m.CapacityWh, m.MinWh, m.ReconnectWh, m.NonCriticalMinWh, m.NonCriticalReconnectWh,
+		m.ChargeEff, m.DischargeEff, m.SelfDischargePerHour, m.MaxChargeW, m.MaxDischargeW, m.KneeWh} {
+		if math.IsNaN(v) || math.IsInf(v, 0) {
+			return fastBattery{}, false
+		}
+	}
+	if !(m.ChargeEff > 0) || !(m.DischargeEff > 0) {
+		return fastBattery{}, false
+	}
+	eps := 1e-12 * m.CapacityWh
+	k := fastBattery{
+		full: m.CapacityWh, minWh: m.MinWh, reconnectWh: m.ReconnectWh,
+		ncMinWh: m.NonCriticalMinWh, ncReconnectWh: m.NonCriticalReconnectWh,
+		chargeEff: m.ChargeEff, dischargeEff: m.DischargeEff,
+		maxChargeW: m.MaxChargeW, maxDischargeLimit: math.Inf(1),
+		span:   m.CapacityWh - m.KneeWh,
+		floorN: max(m.MinWh, m.NonCriticalMinWh),
+		minEps: m.MinWh + eps, ncMinEps: m.NonCriticalMinWh + eps,
+	}
+	k.kneeLevel = k.full - k.span
+	k.hiEps = max(k.minEps, k.ncMinEps)
+	if m.MaxChargeW > 0 {
+		k.tauLimited = k.span / (m.MaxChargeW * m.ChargeEff)
+		k.decayLimited = math.Exp(-1.0 / k.tauLimited)
+	}
+	if m.MaxDischargeW > 0 {
+		k.maxDischargeLimit = m.MaxDischargeW
+	}
+	if m.SelfDischargePerHour > 0 {
+		k.selfFrac = min(1, m.SelfDischargePerHour)
+	}
+	return k, true
+}
+
+// fastState is the state of a battery.Model: stored energy and flags.
+type fastState struct {
+	e          float64
+	disc, shed bool
+}
+
+func stateOf(m *battery.Model) fastState {
+	return fastState{e: m.EnergyWh, disc: m.Disconnected, shed: m.NonCriticalShed}
+}
+
+func (st fastState) store(m *battery.Model) {
+	m.EnergyWh, m.Disconnected, m.NonCriticalShed = st.e, st.disc, st.shed
+}
+
+// flags is battery.Model's disconnect logic (updateFlags) on energy e.
+func (k *fastBattery) flags(e float64, disc, shed bool) (bool, bool) {
+	if e <= k.minEps {
+		disc = true
+	} else if disc && e >= k.reconnectWh {
+		disc = false
+	}
+	if k.ncMinWh > 0 {
+		if e <= k.ncMinEps || disc {
+			shed = true
+		} else if shed && e >= k.ncReconnectWh {
+			shed = false
+		}
+	} else {
+		shed = disc
+	}
+	return disc, shed
+}
+
+// day is dayByCalls for a battery that fastBatteryOf accepts, in state st:
+// the one-hour steps of battery.Model's Charge, Discharge and
+// SelfDischarge written out inline, with the same floating-point
+// operations in the same order (only products by 1 h and quotients x / x
+// = 1 are left out, which are exact), on the state held in registers.
+// TestRunTotalsMatchesRunDays checks that it ends bit for bit where
+// RunDays does.
+func (k *fastBattery) day(st *fastState, sp *daySplit, cDay, nDay *[HoursPerDay]float64) (servedC, servedN float64) {
+	e, disc, shed := st.e, st.disc, st.shed
+	full, ceff, deff, minWh, span := k.full, k.chargeEff, k.dischargeEff, k.minWh, k.span
+	limited := k.maxChargeW > 0
+	for h := 0; h < HoursPerDay; h++ {
+		sc, sn := sp.sc[h], sp.sn[h]
+		if rem := sp.rem[h]; rem > 0 {
+			// Charge(rem, 1).
+			e0 := e
+			if !(full-e0 > 0) {
+				if disc || shed || !(e > k.hiEps) {
+					disc, shed = k.flags(e, disc, shed)
+				}
+			} else {
+				p, ref := rem, rem
+				if limited {
+					p = min(p, k.maxChargeW)
+					ref = k.maxChargeW
+				}
+				rate := p * ceff
+				en := e0
+				if span <= 0 {
+					en = min(full, e0+rate)
+				} else {
+					tLeft := 1.0
+					ek := k.kneeLevel // p / ref = 1
+					if limited {
+						ek = full - (p/ref)*span
+					}
+					if en < ek {
+						if dt := (ek - en) / rate; dt >= tLeft {
+							en += rate
+							tLeft = 0
+						} else {
+							en = ek
+							tLeft -= dt
+						}
+					}
+					if tLeft > 0 {
+						// e^(−tLeft/τ); at the charge limit over the whole
+						// hour, the decay of fastBatteryOf.
+						decay := k.decayLimited
+						if !limited || tLeft != 1 {
+							tau := k.tauLimited
+							if !limited {
+								tau = span / (ref * ceff)
+							}
+							decay = math.Exp(-tLeft / tau)
+						}
+						en = full - (full-en)*decay
+					}
+					if en > full { // min(en, full), likewise for NaN
+						en = full
+					}
+				}
+				if inc := en - e0; inc > 0 {
+					// Rounding guard: accepted inc / ChargeEff at most rem.
+					// Its fix en = e0 + rem × ChargeEff is what the linear
+					// step without a charge limit has just computed, so that
+					// case, where the test goes either way by rounding, skips
+					// it.
+					if alt := e0 + rem*ceff; en != alt && inc/ceff > rem {
+						en = alt
+					}
+					e = en
+					if disc || shed || !(e > k.hiEps) {
+						disc, shed = k.flags(e, disc, shed)
+					}
+				}
+			}
+		}
+		if rc, rn := cDay[h]-sc, nDay[h]-sn; rc > 0 || rn > 0 {
+			// Discharge(rc, rn, 1).
+			if !(rc > 0) {
+				rc = 0
+			}
+			if !(rn > 0) {
+				rn = 0
+			}
+			if disc || shed || !(e > k.hiEps) {
+				disc, shed = k.flags(e, disc, shed)
+			}
+			if !disc {
+				e0, limit := e, k.maxDischargeLimit
+				// min(rc, min(avail, limit)) written as a branch that is
+				// nearly always taken the same way, which keeps the stored
+				// energy out of the quotient below.
+				bc := rc
+				if avail := (e0 - minWh) * deff; !(rc <= avail && rc <= limit) {
+					bc = min(rc, min(avail, limit))
+				}
+				if !(bc > 0) {
+					bc = 0
+				}
+				bn := 0.0
+				if !shed && rn > 0 {
+					if availN := (e0 - bc/deff - k.floorN) * deff; availN > 0 {
+						bn = rn
+						if !(rn <= availN && rn <= limit-bc) {
+							bn = min(rn, min(availN, limit-bc))
+						}
+						if !(bn > 0) {
+							bn = 0
+						}
+					}
+				}
+				en := e0 - (bc+bn)/deff
+				if en < minWh {
+					en = minWh
+				}
+				e = en
+				if disc || shed || !(e > k.hiEps) {
+					disc, shed = k.flags(e, disc, shed)
+				}
+				sc += bc
+				sn += bn
+			}
+		}
+		// SelfDischarge(1).
+		if k.selfFrac > 0 && e > 0 {
+			e -= e * k.selfFrac
+			if disc || shed || !(e > k.hiEps) {
+				disc, shed = k.flags(e, disc, shed)
+			}
+		}
+		servedC += sc
+		servedN += sn
+	}
+	st.e, st.disc, st.shed = e, disc, shed
+	return servedC, servedN
 }
 
 // isZero reports whether no RunDays call has written to the ledger yet.

@@ -623,3 +623,468 @@ func TestRunDaysAllocs(t *testing.T) {
 		t.Fatalf("RunDays allocates %g times per call, want 0", a)
 	}
 }
+
+// ---- Reference kernel -------------------------------------------------
+//
+// refRunDays and the ref* battery steps below are the straightforward
+// kernel as it was before the LOLP fast path (runTotals, fastBattery) and
+// the RunDays table refactor: one hourly step after the other through
+// plain copies of battery.Model's Charge, Discharge and SelfDischarge.
+// The equivalence tests check the optimised code against them.
+
+func refUpdateFlags(m *battery.Model) {
+	eps := 1e-12 * m.CapacityWh
+	if m.EnergyWh <= m.MinWh+eps {
+		m.Disconnected = true
+	} else if m.Disconnected && m.EnergyWh >= m.ReconnectWh {
+		m.Disconnected = false
+	}
+	if m.NonCriticalMinWh > 0 {
+		if m.EnergyWh <= m.NonCriticalMinWh+eps || m.Disconnected {
+			m.NonCriticalShed = true
+		} else if m.NonCriticalShed && m.EnergyWh >= m.NonCriticalReconnectWh {
+			m.NonCriticalShed = false
+		}
+	} else {
+		m.NonCriticalShed = m.Disconnected
+	}
+}
+
+func refSOC(m *battery.Model) float64 {
+	if !(m.CapacityWh > 0) {
+		return 0
+	}
+	return m.EnergyWh / m.CapacityWh
+}
+
+func refCharge(m *battery.Model, offeredWh, hours float64) (acceptedWh, lossWh float64) {
+	if !(offeredWh > 0) || !(hours > 0) || !(m.ChargeEff > 0) || math.IsInf(offeredWh, 0) || math.IsInf(hours, 0) {
+		return 0, 0
+	}
+	e0, full := m.EnergyWh, m.CapacityWh
+	if !(full-e0 > 0) {
+		refUpdateFlags(m)
+		return 0, 0
+	}
+	p := offeredWh / hours
+	ref := p
+	if m.MaxChargeW > 0 {
+		p = min(p, m.MaxChargeW)
+		ref = m.MaxChargeW
+	}
+	rate := p * m.ChargeEff
+	e := e0
+	if span := full - m.KneeWh; span <= 0 {
+		e = min(full, e0+rate*hours)
+	} else {
+		t := hours
+		if ek := full - (p/ref)*span; e < ek {
+			if dt := (ek - e) / rate; dt >= t {
+				e += rate * t
+				t = 0
+			} else {
+				e = ek
+				t -= dt
+			}
+		}
+		if t > 0 {
+			tau := span / (ref * m.ChargeEff)
+			e = full - (full-e)*math.Exp(-t/tau)
+		}
+		e = min(e, full)
+	}
+	inc := e - e0
+	if !(inc > 0) {
+		return 0, 0
+	}
+	acceptedWh = inc / m.ChargeEff
+	if acceptedWh > offeredWh {
+		acceptedWh = offeredWh
+		e = e0 + offeredWh*m.ChargeEff
+	}
+	m.EnergyWh = e
+	lossWh = acceptedWh - (e - e0)
+	refUpdateFlags(m)
+	return acceptedWh, lossWh
+}
+
+func refDischarge(m *battery.Model, criticalWh, nonCriticalWh, hours float64) (deliveredCriticalWh, deliveredNonCriticalWh, lossWh float64) {
+	if !(criticalWh > 0) {
+		criticalWh = 0
+	}
+	if !(nonCriticalWh > 0) {
+		nonCriticalWh = 0
+	}
+	if !(hours > 0) || !(m.DischargeEff > 0) {
+		return 0, 0, 0
+	}
+	refUpdateFlags(m)
+	if m.Disconnected {
+		return 0, 0, 0
+	}
+	e0, eff := m.EnergyWh, m.DischargeEff
+	limit := math.Inf(1)
+	if m.MaxDischargeW > 0 && !math.IsInf(hours, 0) {
+		limit = m.MaxDischargeW * hours
+	}
+	avail := (e0 - m.MinWh) * eff
+	dc := min(criticalWh, min(avail, limit))
+	if !(dc > 0) {
+		dc = 0
+	}
+	dn := 0.0
+	if !m.NonCriticalShed && nonCriticalWh > 0 {
+		floor := max(m.MinWh, m.NonCriticalMinWh)
+		if availN := (e0 - dc/eff - floor) * eff; availN > 0 {
+			dn = min(nonCriticalWh, min(availN, limit-dc))
+			if !(dn > 0) {
+				dn = 0
+			}
+		}
+	}
+	delivered := dc + dn
+	e := e0 - delivered/eff
+	if e < m.MinWh {
+		e = m.MinWh
+	}
+	m.EnergyWh = e
+	lossWh = (e0 - e) - delivered
+	refUpdateFlags(m)
+	return dc, dn, lossWh
+}
+
+func refSelfDischarge(m *battery.Model, hours float64) (lossWh float64) {
+	if !(hours > 0) || !(m.SelfDischargePerHour > 0) || !(m.EnergyWh > 0) {
+		return 0
+	}
+	f := min(1, m.SelfDischargePerHour*hours)
+	e0 := m.EnergyWh
+	m.EnergyWh = e0 - e0*f
+	refUpdateFlags(m)
+	return e0 - m.EnergyWh
+}
+
+// refRunDays is RunDays written the straightforward way: per hour the
+// controller split, the reference battery steps, the records; per day
+// the sums.
+func refRunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *Params, m *battery.Model, led *Ledger, days []Day, soc []float32) int {
+	n := min(len(dayMonth), len(pvUnitWh)/HoursPerDay, len(days))
+	if soc != nil {
+		n = min(n, len(soc)/HoursPerDay)
+	}
+	eff := p.ControllerEfficiency
+	if !(eff > 0) {
+		eff = 0
+	} else if eff > 1 {
+		eff = 1
+	}
+	invEff := 0.0
+	if eff > 0 {
+		invEff = 1 / eff
+	}
+	maxOut := p.ControllerMaxOutWh
+	if !(maxOut > 0) {
+		maxOut = math.Inf(1)
+	}
+	if !(scale > 0) || math.IsInf(scale, 0) {
+		scale = 0
+	}
+	clean := func(v float64) float64 {
+		if !(v > 0) || math.IsInf(v, 0) {
+			return 0
+		}
+		return v
+	}
+	if *led == (Ledger{}) {
+		led.BatteryStartWh = m.EnergyWh
+	}
+	done := 0
+	for di := 0; di < n; di++ {
+		mo := dayMonth[di]
+		if mo < 1 || mo > 12 {
+			break
+		}
+		var demand float64
+		for h := 0; h < HoursPerDay; h++ {
+			demand += clean(d.CriticalWh[mo-1][h]) + clean(d.NonCriticalWh[mo-1][h])
+		}
+		var hPV, hUsed, hOut, hSC, hSN, hLoss, hChg, hDis, hSOC, hFrac [HoursPerDay]float64
+		for h := 0; h < HoursPerDay; h++ {
+			dc, dn := clean(d.CriticalWh[mo-1][h]), clean(d.NonCriticalWh[mo-1][h])
+			if inv := d.InverterLossWh[mo-1][h]; dc+dn > 0 && inv > 0 && !math.IsInf(inv, 0) {
+				hFrac[h] = min(inv, dc+dn) / (dc + dn)
+			}
+			pv := scale * pvUnitWh[di*HoursPerDay+h]
+			if !(pv > 0 && pv <= math.MaxFloat64) {
+				pv = 0
+			}
+			var sc, sn, used, out, lossB, acc float64
+			if pv > 0 && eff > 0 {
+				avail := min(pv*eff, maxOut)
+				sc = min(dc, avail)
+				sn = min(dn, avail-sc)
+				out = sc + sn
+				if rem := avail - out; rem > 0 {
+					if a, loss := refCharge(m, rem, 1); a > 0 {
+						acc = a
+						out += a
+						lossB = loss
+					}
+				}
+				used = out * invEff
+				if used > pv {
+					used = pv
+				}
+			}
+			hPV[h], hUsed[h], hOut[h], hChg[h] = pv, used, out, acc
+			if rc, rn := dc-sc, dn-sn; rc > 0 || rn > 0 {
+				bc, bn, loss := refDischarge(m, rc, rn, 1)
+				sc += bc
+				sn += bn
+				hDis[h] = bc + bn
+				lossB += loss
+			}
+			hSC[h], hSN[h] = sc, sn
+			hLoss[h] = lossB + refSelfDischarge(m, 1)
+			hSOC[h] = refSOC(m)
+		}
+		var dy Day
+		dy.Month, dy.DemandWh = mo, demand
+		dy.SOCMin, dy.SOCMax = math.Inf(1), math.Inf(-1)
+		var outSum, socSum float64
+		for h := 0; h < HoursPerDay; h++ {
+			hd := clean(d.CriticalWh[mo-1][h]) + clean(d.NonCriticalWh[mo-1][h])
+			served := hSC[h] + hSN[h]
+			if hd-served > ledgerRelTol*hd {
+				dy.UnmetHours++
+			}
+			dy.PVAvailableWh += hPV[h]
+			dy.PVUsedWh += hUsed[h]
+			outSum += hOut[h]
+			dy.ServedCriticalWh += hSC[h]
+			dy.ServedNonCriticalWh += hSN[h]
+			dy.InverterLossWh += hFrac[h] * served
+			dy.BatteryLossWh += hLoss[h]
+			dy.ChargeWh += hChg[h]
+			dy.DischargeWh += hDis[h]
+			socSum += hSOC[h]
+			if hSOC[h] < dy.SOCMin {
+				dy.SOCMin = hSOC[h]
+			}
+			if hSOC[h] > dy.SOCMax {
+				dy.SOCMax = hSOC[h]
+			}
+			if soc != nil {
+				soc[di*HoursPerDay+h] = float32(hSOC[h])
+			}
+		}
+		dy.UnmetWh = demand - (dy.ServedCriticalWh + dy.ServedNonCriticalWh)
+		dy.DumpedWh = dy.PVAvailableWh - dy.PVUsedWh
+		dy.ControllerLossWh = dy.PVUsedWh - outSum
+		dy.SOCEnd = hSOC[HoursPerDay-1]
+		dy.SOCMean = socSum / HoursPerDay
+		days[di] = dy
+		led.PVAvailableWh += dy.PVAvailableWh
+		led.LoadServedWh += dy.ServedCriticalWh + dy.ServedNonCriticalWh
+		led.UnmetWh += dy.UnmetWh
+		led.DumpedWh += dy.DumpedWh
+		led.LossesWh += dy.ControllerLossWh + dy.BatteryLossWh
+		led.DemandWh += demand
+		done++
+	}
+	led.BatteryEndWh = m.EnergyWh
+	return done
+}
+
+// randomCase draws a random system for the equivalence tests: demand, a
+// few days of PV, controller, scale and battery. With odd set, some
+// battery and controller figures are NaN, infinite, zero or negative.
+func randomCase(r *rand.Rand, odd bool) (d Demand, dm []int8, pv []float64, p Params, scale float64, m battery.Model) {
+	for mo := 0; mo < 12; mo++ {
+		for h := 0; h < 24; h++ {
+			d.CriticalWh[mo][h] = 200 * r.Float64() * float64(r.IntN(2))
+			d.NonCriticalWh[mo][h] = 300 * r.Float64() * float64(r.IntN(2))
+			d.InverterLossWh[mo][h] = 0.2 * r.Float64() * (d.CriticalWh[mo][h] + d.NonCriticalWh[mo][h])
+		}
+	}
+	nDays := 1 + r.IntN(40)
+	dm = make([]int8, nDays)
+	pv = make([]float64, 24*nDays)
+	for i := range dm {
+		dm[i] = int8(1 + r.IntN(12))
+	}
+	for i := range pv {
+		if r.IntN(3) > 0 {
+			pv[i] = r.Float64() * 2
+		}
+	}
+	capWh := 20000 * r.Float64()
+	if r.IntN(8) == 0 {
+		capWh = 0
+	}
+	minFrac := 0.8 * r.Float64()
+	m = battery.Model{
+		CapacityWh:           capWh,
+		EnergyWh:             capWh * r.Float64(),
+		MinWh:                capWh * minFrac,
+		ReconnectWh:          capWh * (minFrac + (1-minFrac)*r.Float64()*0.5),
+		ChargeEff:            0.6 + 0.4*r.Float64(),
+		DischargeEff:         0.6 + 0.4*r.Float64(),
+		SelfDischargePerHour: 1e-3 * r.Float64() * float64(r.IntN(2)),
+		KneeWh:               capWh * (0.7 + 0.4*r.Float64()), // above 1: no taper
+		Disconnected:         r.IntN(4) == 0,                  // flags not matching the energy
+		NonCriticalShed:      r.IntN(4) == 0,
+	}
+	if r.IntN(2) == 0 {
+		m.NonCriticalMinWh = capWh * (minFrac + (1-minFrac)*r.Float64())
+		m.NonCriticalReconnectWh = math.Min(capWh, m.NonCriticalMinWh+0.05*capWh)
+	}
+	if r.IntN(2) == 0 {
+		m.MaxChargeW = 2000 * r.Float64()
+		m.MaxDischargeW = 2000 * r.Float64()
+	}
+	p = Params{ControllerEfficiency: 0.8 + 0.2*r.Float64()}
+	if r.IntN(2) == 0 {
+		p.ControllerMaxOutWh = 3000 * r.Float64()
+	}
+	scale = 5000 * r.Float64()
+	if odd {
+		bad := []float64{math.NaN(), math.Inf(1), math.Inf(-1), 0, -1}
+		fields := []*float64{&m.ChargeEff, &m.DischargeEff, &m.SelfDischargePerHour, &m.MaxChargeW, &m.MaxDischargeW,
+			&m.KneeWh, &m.ReconnectWh, &m.NonCriticalMinWh, &m.MinWh, &p.ControllerEfficiency, &p.ControllerMaxOutWh, &scale}
+		*fields[r.IntN(len(fields))] = bad[r.IntN(len(bad))]
+	}
+	return d, dm, pv, p, scale, m
+}
+
+// relClose reports whether a and b agree to 1e-12 relative to the larger
+// of |a|, |b| and scale (scale: the energy of the day, so that sums which
+// cancel to about 0, such as a day's unmet energy, compare on that
+// scale).
+func relClose(a, b, scale float64) bool {
+	if a == b || (math.IsNaN(a) && math.IsNaN(b)) {
+		return true
+	}
+	return math.Abs(a-b) <= 1e-12*max(math.Abs(a), math.Abs(b), scale)
+}
+
+func ledgerClose(a, b Ledger) bool {
+	s := max(a.PVAvailableWh, a.DemandWh, a.BatteryStartWh, a.BatteryEndWh)
+	return relClose(a.PVAvailableWh, b.PVAvailableWh, s) && relClose(a.LoadServedWh, b.LoadServedWh, s) &&
+		relClose(a.UnmetWh, b.UnmetWh, s) && relClose(a.DumpedWh, b.DumpedWh, s) && relClose(a.LossesWh, b.LossesWh, s) &&
+		relClose(a.BatteryStartWh, b.BatteryStartWh, s) && relClose(a.BatteryEndWh, b.BatteryEndWh, s) && relClose(a.DemandWh, b.DemandWh, s)
+}
+
+func dayClose(a, b Day) bool {
+	s := max(a.PVAvailableWh, a.DemandWh, a.ChargeWh, a.DischargeWh)
+	return a.Month == b.Month && a.UnmetHours == b.UnmetHours &&
+		relClose(a.PVAvailableWh, b.PVAvailableWh, s) && relClose(a.PVUsedWh, b.PVUsedWh, s) && relClose(a.DemandWh, b.DemandWh, s) &&
+		relClose(a.ServedCriticalWh, b.ServedCriticalWh, s) && relClose(a.ServedNonCriticalWh, b.ServedNonCriticalWh, s) &&
+		relClose(a.UnmetWh, b.UnmetWh, s) && relClose(a.DumpedWh, b.DumpedWh, s) && relClose(a.InverterLossWh, b.InverterLossWh, s) &&
+		relClose(a.ControllerLossWh, b.ControllerLossWh, s) && relClose(a.BatteryLossWh, b.BatteryLossWh, s) &&
+		relClose(a.SOCMin, b.SOCMin, 1) && relClose(a.SOCMax, b.SOCMax, 1) && relClose(a.SOCEnd, b.SOCEnd, 1) && relClose(a.SOCMean, b.SOCMean, 1) &&
+		relClose(a.ChargeWh, b.ChargeWh, s) && relClose(a.DischargeWh, b.DischargeWh, s)
+}
+
+func modelClose(a, b battery.Model) bool {
+	return relClose(a.EnergyWh, b.EnergyWh, a.CapacityWh) && a.Disconnected == b.Disconnected && a.NonCriticalShed == b.NonCriticalShed
+}
+
+// BenchmarkYearTotals: one op is the year of BenchmarkYearHourly through
+// runTotals (the LOLP path: no day records, battery steps inline).
+func BenchmarkYearTotals(b *testing.B) {
+	dm, pv, d, p, m0 := benchSetup()
+	var tb demandTables
+	tb.fill(d)
+	c := controllerOf(&p)
+	b.ReportAllocs()
+	for b.Loop() {
+		m := m0
+		var t totals
+		runTotals(pv, 1200, dm, &tb, c, &m, &t)
+	}
+}
+
+// TestRunDaysMatchesReference: on random systems (fixed seed, some with
+// odd figures), RunDays gives the same Day records, SOC trace, Ledger and
+// battery state as the reference kernel, to 1e-12 relative, over two
+// calls carried over.
+func TestRunDaysMatchesReference(t *testing.T) {
+	r := rand.New(rand.NewPCG(7, 2027))
+	for trial := 0; trial < 600; trial++ {
+		d, dm, pv, p, scale, m := randomCase(r, trial%3 == 2)
+		mr := m
+		nd := len(dm)
+		days, daysR := make([]Day, nd), make([]Day, nd)
+		soc, socR := make([]float32, 24*nd), make([]float32, 24*nd)
+		var led, ledR Ledger
+		half := nd / 2
+		for _, part := range [][2]int{{0, half}, {half, nd}} {
+			a, b := part[0], part[1]
+			n := RunDays(pv[24*a:24*b], scale, dm[a:b], &d, &p, &m, &led, days[a:b], soc[24*a:24*b])
+			nr := refRunDays(pv[24*a:24*b], scale, dm[a:b], &d, &p, &mr, &ledR, daysR[a:b], socR[24*a:24*b])
+			if n != nr {
+				t.Fatalf("trial %d: %d days, reference %d", trial, n, nr)
+			}
+		}
+		if !ledgerClose(led, ledR) {
+			t.Fatalf("trial %d: ledger %+v, reference %+v", trial, led, ledR)
+		}
+		if !modelClose(m, mr) {
+			t.Fatalf("trial %d: battery %+v, reference %+v", trial, m, mr)
+		}
+		for i := range days {
+			if !dayClose(days[i], daysR[i]) {
+				t.Fatalf("trial %d day %d: %+v, reference %+v", trial, i, days[i], daysR[i])
+			}
+		}
+		for i := range soc {
+			if !relClose(float64(soc[i]), float64(socR[i]), 1e-4) { // float32 trace
+				t.Fatalf("trial %d hour %d: SOC %g, reference %g", trial, i, soc[i], socR[i])
+			}
+		}
+	}
+}
+
+// TestRunTotalsMatchesRunDays: on random systems (fixed seed, some with
+// odd figures, so both the inline battery steps and the method calls
+// run), runTotals over several calls carried over ends with the battery
+// in the same state as RunDays, and its served, unmet and demand sums
+// equal the ledger's bit for bit (LOLPGrid relies on this: its LOLP is
+// that of a direct RunDays run). Both also match the reference kernel.
+func TestRunTotalsMatchesRunDays(t *testing.T) {
+	r := rand.New(rand.NewPCG(11, 2027))
+	fastRuns := 0
+	for trial := 0; trial < 900; trial++ {
+		d, dm, pv, p, scale, m := randomCase(r, trial%3 == 2)
+		if _, ok := fastBatteryOf(&m); ok {
+			fastRuns++
+		}
+		mt, mr := m, m
+		var tb demandTables
+		tb.fill(&d)
+		c := controllerOf(&p)
+		var led, ledR Ledger
+		var tot totals
+		days := make([]Day, len(dm))
+		for call := 0; call < 3; call++ {
+			RunDays(pv, scale, dm, &d, &p, &m, &led, days, nil)
+			refRunDays(pv, scale, dm, &d, &p, &mr, &ledR, days, nil)
+			if n := runTotals(pv, scale, dm, &tb, c, &mt, &tot); n != len(dm) {
+				t.Fatalf("trial %d: runTotals ran %d of %d days", trial, n, len(dm))
+			}
+		}
+		if tot.servedWh != led.LoadServedWh || tot.unmetWh != led.UnmetWh || tot.demandWh != led.DemandWh {
+			t.Fatalf("trial %d: totals %+v, ledger %+v", trial, tot, led)
+		}
+		if math.Float64bits(mt.EnergyWh) != math.Float64bits(m.EnergyWh) || mt.Disconnected != m.Disconnected || mt.NonCriticalShed != m.NonCriticalShed {
+			t.Fatalf("trial %d: battery %+v, RunDays %+v", trial, mt, m)
+		}
+		if !ledgerClose(led, ledR) || !modelClose(mt, mr) {
+			t.Fatalf("trial %d: ledger %+v battery %+v, reference %+v %+v", trial, led, mt, ledR, mr)
+		}
+	}
+	if fastRuns < 300 {
+		t.Fatalf("only %d of 900 cases took the inline path", fastRuns)
+	}
+}
