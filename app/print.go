@@ -7,13 +7,11 @@ import (
 	"solstand/report"
 )
 
-var monthNames = [12]string{"January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"}
-
 // PrintSummary writes the terminal summary of a design.
 func PrintSummary(w io.Writer, r *report.Report) {
 	p := func(format string, a ...any) { fmt.Fprintf(w, format+"\n", a...) }
 	p("%s — %s", r.Project, r.Site.Name)
-	p("Design month: %s (%.0f Wh/day DC side, %.2f kWh/m²/day on the array)", monthNames[r.DesignMonth-1], r.Demand.DailyWh[r.DesignMonth-1], r.Resource.POAKWhM2Day[r.DesignMonth-1])
+	p("Design month: %s (%.0f Wh/day DC side, %.2f kWh/m²/day on the array)", report.MonthName(r.DesignMonth), r.Demand.DailyWh[r.DesignMonth-1], r.Resource.POAKWhM2Day[r.DesignMonth-1])
 	p("Array:      %d × %.0f W = %.0f W (method asks %.0f W), %d in series × %d strings, tilt %.0f°, azimuth %.0f°",
 		r.Array.Modules, r.Array.Module.PmaxW, r.Array.RatedW, r.Array.RequiredW, r.Array.ModulesSeries, r.Array.Strings, r.Array.TiltDeg, r.Array.AzimuthDeg)
 	p("Battery:    %s, %d × %g V %g Ah blocks (%d in series × %d strings) = %.0f Ah at %g V, %.0f Wh usable (method asks %.0f Ah)",

@@ -434,3 +434,13 @@ type Method struct {
 	Method string `json:"method"`
 	Source string `json:"source"`
 }
+
+var monthNames = [12]string{"January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"}
+
+// MonthName is the English name of month 1..12 ("" outside).
+func MonthName(month int) string {
+	if month < 1 || month > 12 {
+		return ""
+	}
+	return monthNames[month-1]
+}

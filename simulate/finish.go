@@ -13,7 +13,7 @@ import (
 )
 
 // Loss-of-load targets of the curves (beside the project's own target).
-var defaultTargets = []float64{0.1, 0.01, 0.001}
+var defaultTargets = [...]float64{0.1, 0.01, 0.001}
 
 // curves computes the isoreliability curves when a target is set or asked for.
 func (d *run) curves() error {
@@ -47,7 +47,7 @@ func (d *run) curves() error {
 			in.StorageCostPerCS = E / usablePerBlockWh * *k.BatteryBlockEach
 		}
 	}
-	targets := append([]float64(nil), defaultTargets...)
+	targets := append([]float64(nil), defaultTargets[:]...)
 	if target != nil {
 		targets = append(targets, *target)
 	}

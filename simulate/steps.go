@@ -305,6 +305,4 @@ func finiteOr(v, alt float64) float64 {
 	return v
 }
 
-var monthNames = [12]string{"January", "February", "March", "April", "May", "June", "July", "August", "September", "October", "November", "December"}
-
-func monthName(m int) string { return monthNames[m-1] }
+func monthName(m int) string { return report.MonthName(m) }
