@@ -384,7 +384,7 @@ func (b *builder) reliabilitySheet() error {
 		row++
 		g.headers(row, b.st.header, "Target LOLP", "Storage, days", "Array-to-load ratio", "Array, W", "Storage, Wh", "LOLP", "Cost", "Cheapest", "Curve")
 		row++
-		for _, c := range r.Curves {
+		for ci, c := range r.Curves {
 			r1 := row
 			for i, p := range c.Points {
 				g.num(1, row, c.TargetLOLP, b.st.valuePct)
@@ -403,7 +403,7 @@ func (b *builder) reliabilitySheet() error {
 					Name:       ref(SheetReliab, 9, r1),
 					Categories: rangeRef(SheetReliab, 2, r1, 2, row-1),
 					Values:     rangeRef(SheetReliab, 3, r1, 3, row-1),
-					Marker:     excelize.ChartMarker{Symbol: "circle", Size: 5},
+					Marker:     scatterMarker(ci, 6),
 				})
 			}
 		}
@@ -574,7 +574,7 @@ func (b *builder) sunPathSheet() error {
 			j++
 		}
 		series = append(series, excelize.ChartSeries{Name: ref(SheetSunPath, 5, r1), Categories: rangeRef(SheetSunPath, 4, r1, 4, row-1),
-			Values: rangeRef(SheetSunPath, 3, r1, 3, row-1), Marker: excelize.ChartMarker{Symbol: "circle", Size: 4}})
+			Values: rangeRef(SheetSunPath, 3, r1, 3, row-1), Marker: scatterMarker(len(series), 4)})
 		i = j
 	}
 	if err := b.pageSetup(SheetSunPath, false); err != nil {
@@ -676,4 +676,15 @@ func (b *builder) hourlySheet() error {
 		}
 	}
 	return sw.Flush()
+}
+
+// markerColours are the series colours of the scatter charts.
+var markerColours = [...]string{"1F6F5C", "C2571A", "4A5A9C", "8A6D1F", "6B3F7A", "2F8FB0"}
+
+// scatterMarker is a filled round marker in the i-th series colour: a
+// scatter series draws no line, and a marker without a fill is invisible in
+// some spreadsheet programs.
+func scatterMarker(i, size int) excelize.ChartMarker {
+	fill := excelize.Fill{Type: "pattern", Pattern: 1, Color: []string{markerColours[i%len(markerColours)]}}
+	return excelize.ChartMarker{Symbol: "circle", Size: size, Fill: fill, Border: excelize.LineOptions{Width: 0.75, Fill: fill}}
 }
