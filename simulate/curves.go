@@ -236,9 +236,9 @@ func (r *lolpRunner) column(ca float64, cs []float64, lolps []float64) {
 				cDay, nDay := r.tb.day(mo)
 				var servedC, servedN float64
 				if r.fast[i] {
-					servedC, servedN = k.day(st, &split[di], cDay, nDay)
+					servedC, servedN = k.day(st, &split[di], cDay, nDay, nil)
 				} else {
-					servedC, servedN = dayByCalls(m, &split[di], cDay, nDay)
+					servedC, servedN = dayByCalls(m, &split[di], cDay, nDay, nil)
 				}
 				t.add(servedC, servedN, r.tb.dayDemand[mo-1])
 			}

@@ -155,7 +155,10 @@ func (d *Day) ServedWh() float64 { return d.ServedCriticalWh + d.ServedNonCritic
 // the rest of the available PV, including what the output limit clips, is
 // dumped. The remaining load is asked from m.Discharge, then
 // m.SelfDischarge(1) applies. Losses = controller loss + battery charge,
-// discharge and self-discharge losses.
+// discharge and self-discharge losses. A battery whose figures are all
+// finite, with both efficiencies above 0, is stepped by an inline copy of
+// these three methods with the same results bit for bit; any other battery
+// through the methods themselves.
 //
 // A zero Ledger starts afresh (BatteryStartWh is set to m.EnergyWh); a
 // ledger carried over from an earlier RunDays call continues it, which requires m to
@@ -166,6 +169,13 @@ func (d *Day) ServedWh() float64 { return d.ServedCriticalWh + d.ServedNonCritic
 // pvUnitWh, days or a non-nil soc is too short; with a nil d, p, m or led it
 // does nothing.
 func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *Params, m *battery.Model, led *Ledger, days []Day, soc []float32) int {
+	return runDays(pvUnitWh, scale, dayMonth, d, p, m, led, days, soc, true)
+}
+
+// runDays is RunDays; with inline false it steps every battery through its
+// methods (dayByCalls), which TestRunDaysInlineMatchesMethods compares the
+// inline steps with.
+func runDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *Params, m *battery.Model, led *Ledger, days []Day, soc []float32, inline bool) int {
 	if d == nil || p == nil || m == nil || led == nil {
 		return 0
 	}
@@ -177,91 +187,78 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 	}
 
 	c := controllerOf(p)
-	eff, invEff, maxOut := c.eff, c.invEff, c.maxOut
+	invEff := c.invEff
 	scale = sanitiseScale(scale)
 
 	// Flat per-month, per-hour tables, sanitised once per call.
 	var tb demandTables
 	tb.fill(d)
-	crit, nonc, invFrac, dayDemand := &tb.crit, &tb.nonc, &tb.invFrac, &tb.dayDemand
 
 	if led.isZero() {
 		led.BatteryStartWh = m.EnergyWh
 	}
+	k, fast := fastBatteryOf(m)
+	fast = fast && inline
+	st := stateOf(m)
+	capWh := m.CapacityWh
 	done := 0
-	var hPV, hUsed, hOut, hSC, hSN, hLoss, hChg, hDis, hSOC [HoursPerDay]float64
+	// Per day: the PV split (call-free), the battery's 24 steps (inline, or
+	// through the methods), then the records and sums (call-free).
+	var sp daySplit
+	var bh batteryHours
+	var hSOC [HoursPerDay]float64
 	for di := 0; di < n; di++ {
 		mo := dayMonth[di]
 		if mo < 1 || mo > 12 {
 			break
 		}
-		base := int(mo-1) * HoursPerDay
 		pvDay := pvUnitWh[di*HoursPerDay : di*HoursPerDay+HoursPerDay]
-		cDay := crit[base : base+HoursPerDay]
-		nDay := nonc[base : base+HoursPerDay]
-		fDay := invFrac[base : base+HoursPerDay]
-
-		// The hour loop keeps only this hour's values live across the battery
-		// calls (Go's calling convention saves no registers) and records them;
-		// the day's sums follow in a second, call-free loop. Every hour
-		// writes every record, so the arrays need no clearing per day.
-		for h := 0; h < HoursPerDay; h++ {
-			pv := scale * pvDay[h]
-			if !(pv > 0 && pv <= math.MaxFloat64) { // NaN, negative, +Inf
-				pv = 0
-			}
-			dc, dn := cDay[h], nDay[h]
-			var sc, sn, used, out, lossB, acc float64
-			if pv > 0 && eff > 0 {
-				avail := min(pv*eff, maxOut)
-				sc = min(dc, avail)
-				sn = min(dn, avail-sc)
-				out = sc + sn
-				if rem := avail - out; rem > 0 {
-					a, loss := m.Charge(rem, 1)
-					if a > 0 {
-						acc = a
-						out += a
-						lossB = loss
-					}
-				}
-				used = out * invEff
-				if used > pv {
-					used = pv
-				}
-			}
-			hPV[h], hUsed[h], hOut[h], hChg[h], hDis[h] = pv, used, out, acc, 0
-			if rc, rn := dc-sc, dn-sn; rc > 0 || rn > 0 {
-				bc, bn, loss := m.Discharge(rc, rn, 1)
-				sc += bc
-				sn += bn
-				hDis[h] = bc + bn
-				lossB += loss
-			}
-			hSC[h], hSN[h] = sc, sn
-			hLoss[h] = lossB + m.SelfDischarge(1)
-			hSOC[h] = m.SOC()
+		cDay, nDay := tb.day(mo)
+		fDay := (*[HoursPerDay]float64)(tb.invFrac[int(mo-1)*HoursPerDay:])
+		sp.fill(pvDay, scale, cDay, nDay, c)
+		if fast {
+			k.day(&st, &sp, cDay, nDay, &bh)
+		} else {
+			dayByCalls(m, &sp, cDay, nDay, &bh)
 		}
 
 		var pvAvail, pvUsed, servedC, servedN, invLoss, outSum, batLoss, chg, dis, socSum float64
 		socMin, socMax := math.Inf(1), math.Inf(-1)
 		var unmetHours int16
 		for h := 0; h < HoursPerDay; h++ {
+			pv := scale * pvDay[h]
+			if !(pv > 0 && pv <= math.MaxFloat64) { // NaN, negative, +Inf
+				pv = 0
+			}
+			// The controller's output: the direct share of both loads, then
+			// what the battery accepted (all 0 without PV); it drew
+			// output / efficiency from the array.
+			out := sp.sc[h] + sp.sn[h] + bh.acc[h]
+			used := out * invEff
+			if used > pv {
+				used = pv
+			}
+			bc, bn := bh.bc[h], bh.bn[h]
+			sc, sn := sp.sc[h]+bc, sp.sn[h]+bn
 			hd := cDay[h] + nDay[h]
-			served := hSC[h] + hSN[h]
+			served := sc + sn
 			if u := hd - served; u > ledgerRelTol*hd {
 				unmetHours++
 			}
-			pvAvail += hPV[h]
-			pvUsed += hUsed[h]
-			outSum += hOut[h]
-			servedC += hSC[h]
-			servedN += hSN[h]
+			pvAvail += pv
+			pvUsed += used
+			outSum += out
+			servedC += sc
+			servedN += sn
 			invLoss += fDay[h] * served
-			batLoss += hLoss[h]
-			chg += hChg[h]
-			dis += hDis[h]
-			s := hSOC[h]
+			batLoss += bh.loss[h]
+			chg += bh.acc[h]
+			dis += bc + bn
+			s := 0.0
+			if capWh > 0 { // battery.Model.SOC
+				s = bh.e[h] / capWh
+			}
+			hSOC[h] = s
 			socSum += s
 			if s < socMin {
 				socMin = s
@@ -276,7 +273,7 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 				out[h] = float32(s)
 			}
 		}
-		demand := dayDemand[mo-1]
+		demand := tb.dayDemand[mo-1]
 		unmet := demand - (servedC + servedN)
 		dumped := pvAvail - pvUsed
 		ctrlLoss := pvUsed - outSum
@@ -307,6 +304,9 @@ func RunDays(pvUnitWh []float64, scale float64, dayMonth []int8, d *Demand, p *P
 		led.LossesWh += ctrlLoss + batLoss
 		led.DemandWh += demand
 		done++
+	}
+	if fast {
+		st.store(m)
 	}
 	led.BatteryEndWh = m.EnergyWh
 	return done
@@ -429,7 +429,8 @@ func (t *demandTables) day(mo int8) (c, n *[HoursPerDay]float64) {
 //
 // Each day's PV split (daySplit) is made first; a battery that
 // fastBatteryOf accepts is then stepped inline (fastBattery.day), any
-// other through its methods (dayByCalls).
+// other through its methods (dayByCalls), as in RunDays, here without
+// the hourly records.
 func runTotals(pvUnitWh []float64, scale float64, dayMonth []int8, tb *demandTables, c controller, m *battery.Model, t *totals) int {
 	scale = sanitiseScale(scale)
 	n := min(len(dayMonth), len(pvUnitWh)/HoursPerDay)
@@ -446,9 +447,9 @@ func runTotals(pvUnitWh []float64, scale float64, dayMonth []int8, tb *demandTab
 		sp.fill(pvUnitWh[di*HoursPerDay:], scale, cDay, nDay, c)
 		var servedC, servedN float64
 		if fast {
-			servedC, servedN = k.day(&st, &sp, cDay, nDay)
+			servedC, servedN = k.day(&st, &sp, cDay, nDay, nil)
 		} else {
-			servedC, servedN = dayByCalls(m, &sp, cDay, nDay)
+			servedC, servedN = dayByCalls(m, &sp, cDay, nDay, nil)
 		}
 		t.add(servedC, servedN, tb.dayDemand[mo-1])
 		done++
@@ -467,21 +468,38 @@ func (t *totals) add(servedC, servedN, demand float64) {
 	t.demandWh += demand
 }
 
+// batteryHours is what the battery did in each hour of one day, as
+// RunDays records it: accepted charge (only a positive Charge counts), what
+// Discharge delivered to the critical and the non-critical load, the
+// hour's battery loss (charge + discharge + self-discharge, in that order
+// of summation) and the stored energy at the end of the hour.
+type batteryHours struct {
+	acc, bc, bn, loss, e [HoursPerDay]float64
+}
+
 // dayByCalls steps m through one day of split sp with the battery.Model
 // methods, as RunDays calls them, and returns the load served from PV
-// and battery together.
-func dayByCalls(m *battery.Model, sp *daySplit, cDay, nDay *[HoursPerDay]float64) (servedC, servedN float64) {
+// and battery together; when rec is not nil it records each hour there.
+func dayByCalls(m *battery.Model, sp *daySplit, cDay, nDay *[HoursPerDay]float64, rec *batteryHours) (servedC, servedN float64) {
 	for h := 0; h < HoursPerDay; h++ {
 		sc, sn := sp.sc[h], sp.sn[h]
+		var acc, bc, bn, loss float64
 		if rem := sp.rem[h]; rem > 0 {
-			m.Charge(rem, 1)
+			if a, l := m.Charge(rem, 1); a > 0 {
+				acc, loss = a, l
+			}
 		}
 		if rc, rn := cDay[h]-sc, nDay[h]-sn; rc > 0 || rn > 0 {
-			bc, bn, _ := m.Discharge(rc, rn, 1)
+			var l float64
+			bc, bn, l = m.Discharge(rc, rn, 1)
 			sc += bc
 			sn += bn
+			loss += l
 		}
-		m.SelfDischarge(1)
+		loss += m.SelfDischarge(1)
+		if rec != nil {
+			rec.acc[h], rec.bc[h], rec.bn[h], rec.loss[h], rec.e[h] = acc, bc, bn, loss, m.EnergyWh
+		}
 		servedC += sc
 		servedN += sn
 	}
@@ -577,12 +595,18 @@ func (k *fastBattery) flags(e float64, disc, shed bool) (bool, bool) {
 // SelfDischarge written out inline, with the same floating-point
 // operations in the same order (only products by 1 h and quotients x / x
 // = 1 are left out, which are exact), on the state held in registers.
-// TestRunTotalsMatchesRunDays checks that it ends bit for bit where
-// RunDays does.
-func (k *fastBattery) day(st *fastState, sp *daySplit, cDay, nDay *[HoursPerDay]float64) (servedC, servedN float64) {
+// When rec is not nil, day also records each hour there as dayByCalls
+// does (the accepted energy and the losses the methods would return);
+// RunDays records, runTotals does not. TestRunDaysInlineMatchesMethods
+// checks the records and the end state bit for bit against the methods,
+// TestRunTotalsMatchesRunDays runTotals against RunDays.
+func (k *fastBattery) day(st *fastState, sp *daySplit, cDay, nDay *[HoursPerDay]float64, rec *batteryHours) (servedC, servedN float64) {
 	e, disc, shed := st.e, st.disc, st.shed
 	full, ceff, deff, minWh, span := k.full, k.chargeEff, k.dischargeEff, k.minWh, k.span
 	limited := k.maxChargeW > 0
+	if rec != nil {
+		*rec = batteryHours{}
+	}
 	for h := 0; h < HoursPerDay; h++ {
 		sc, sn := sp.sc[h], sp.sn[h]
 		if rem := sp.rem[h]; rem > 0 {
@@ -647,6 +671,13 @@ func (k *fastBattery) day(st *fastState, sp *daySplit, cDay, nDay *[HoursPerDay]
 					if disc || shed || !(e > k.hiEps) {
 						disc, shed = k.flags(e, disc, shed)
 					}
+					if rec != nil {
+						// Charge's accepted energy and loss; RunDays
+						// counts a positive charge only.
+						if a := min(inc/ceff, rem); a > 0 {
+							rec.acc[h], rec.loss[h] = a, a-(e-e0)
+						}
+					}
 				}
 			}
 		}
@@ -693,16 +724,27 @@ func (k *fastBattery) day(st *fastState, sp *daySplit, cDay, nDay *[HoursPerDay]
 				if disc || shed || !(e > k.hiEps) {
 					disc, shed = k.flags(e, disc, shed)
 				}
+				if rec != nil {
+					rec.bc[h], rec.bn[h] = bc, bn
+					rec.loss[h] += (e0 - e) - (bc + bn)
+				}
 				sc += bc
 				sn += bn
 			}
 		}
 		// SelfDischarge(1).
 		if k.selfFrac > 0 && e > 0 {
+			e0 := e
 			e -= e * k.selfFrac
 			if disc || shed || !(e > k.hiEps) {
 				disc, shed = k.flags(e, disc, shed)
 			}
+			if rec != nil {
+				rec.loss[h] += e0 - e
+			}
+		}
+		if rec != nil {
+			rec.e[h] = e
 		}
 		servedC += sc
 		servedN += sn

@@ -517,9 +517,11 @@ func BenchmarkYearHourly(b *testing.B) {
 
 // BenchmarkMinimalLoop is the yardstick of BenchmarkYearHourly: over the
 // same year and system, a loop that only updates the state of charge
-// (through the same battery.Model methods, the irreducible work of every
-// step) and the ledger totals: no critical/non-critical split, no
-// controller limit, no day records.
+// (through the same inline battery step as RunDays, fastBattery.day, the
+// cheapest correct update the package has and the irreducible work of
+// every step) and the ledger totals: no critical/non-critical split, no
+// controller limit, no day records. Per day it offers the battery the PV
+// surplus over the load, or asks it for the shortfall, hour by hour.
 func BenchmarkMinimalLoop(b *testing.B) {
 	dm, pv, d, p, m0 := benchSetup()
 	var load [12 * 24]float64
@@ -528,35 +530,42 @@ func BenchmarkMinimalLoop(b *testing.B) {
 			load[mo*24+h] = d.CriticalWh[mo][h] + d.NonCriticalWh[mo][h]
 		}
 	}
+	var dayLoad [12]float64
+	for mo := range dayLoad {
+		dayLoad[mo] = d.DailyWh(mo + 1)
+	}
+	k, ok := fastBatteryOf(&m0)
+	if !ok {
+		b.Fatal("demo battery not eligible for the inline step")
+	}
+	eff := p.ControllerEfficiency
+	var none [24]float64
 	var sink Ledger
 	b.ReportAllocs()
 	for b.Loop() {
-		m := m0
-		led := Ledger{BatteryStartWh: m.EnergyWh}
+		st := stateOf(&m0)
+		led := Ledger{BatteryStartWh: st.e}
+		var sp daySplit
+		var bh batteryHours
 		for di, mo := range dm {
-			base := int(mo-1) * 24
+			lDay := (*[24]float64)(load[int(mo-1)*24:])
+			for h := 0; h < 24; h++ {
+				out := 1200 * pv[di*24+h] * eff
+				sp.sc[h] = min(lDay[h], out)
+				sp.rem[h] = out - sp.sc[h]
+			}
+			served, _ := k.day(&st, &sp, lDay, &none, &bh)
 			for h := 0; h < 24; h++ {
 				pvh := 1200 * pv[di*24+h]
-				l := load[base+h]
-				net := pvh*p.ControllerEfficiency - l
-				served := l
-				if net > 0 {
-					acc, loss := m.Charge(net, 1)
-					led.LossesWh += loss
-					led.DumpedWh += net - acc
-				} else {
-					c, _, loss := m.Discharge(-net, 0, 1)
-					served = pvh*p.ControllerEfficiency + c
-					led.LossesWh += loss
-				}
-				led.LossesWh += m.SelfDischarge(1) + pvh*(1-p.ControllerEfficiency)
-				led.LoadServedWh += served
-				led.UnmetWh += l - served
+				led.LossesWh += bh.loss[h] + pvh*(1-eff)
+				led.DumpedWh += sp.rem[h] - bh.acc[h]
 				led.PVAvailableWh += pvh
-				led.DemandWh += l
+				led.DemandWh += lDay[h]
 			}
+			led.LoadServedWh += served
+			led.UnmetWh += dayLoad[mo-1] - served
 		}
-		led.BatteryEndWh = m.EnergyWh
+		led.BatteryEndWh = st.e
 		sink = led
 	}
 	if err := sink.Check(); err != nil {
@@ -1086,5 +1095,87 @@ func TestRunTotalsMatchesRunDays(t *testing.T) {
 	}
 	if fastRuns < 300 {
 		t.Fatalf("only %d of 900 cases took the inline path", fastRuns)
+	}
+}
+
+// sameBits reports whether a and b are the same float64 bit for bit (any
+// two NaNs count as the same).
+func sameBits(a, b float64) bool {
+	return math.Float64bits(a) == math.Float64bits(b) || (math.IsNaN(a) && math.IsNaN(b))
+}
+
+func daySameBits(a, b Day) bool {
+	fa := [...]float64{a.PVAvailableWh, a.PVUsedWh, a.DemandWh, a.ServedCriticalWh, a.ServedNonCriticalWh, a.UnmetWh, a.DumpedWh,
+		a.InverterLossWh, a.ControllerLossWh, a.BatteryLossWh, a.SOCMin, a.SOCMax, a.SOCEnd, a.SOCMean, a.ChargeWh, a.DischargeWh}
+	fb := [...]float64{b.PVAvailableWh, b.PVUsedWh, b.DemandWh, b.ServedCriticalWh, b.ServedNonCriticalWh, b.UnmetWh, b.DumpedWh,
+		b.InverterLossWh, b.ControllerLossWh, b.BatteryLossWh, b.SOCMin, b.SOCMax, b.SOCEnd, b.SOCMean, b.ChargeWh, b.DischargeWh}
+	for i := range fa {
+		if !sameBits(fa[i], fb[i]) {
+			return false
+		}
+	}
+	return a.Month == b.Month && a.UnmetHours == b.UnmetHours
+}
+
+func ledgerSameBits(a, b Ledger) bool {
+	return sameBits(a.PVAvailableWh, b.PVAvailableWh) && sameBits(a.LoadServedWh, b.LoadServedWh) && sameBits(a.UnmetWh, b.UnmetWh) &&
+		sameBits(a.DumpedWh, b.DumpedWh) && sameBits(a.LossesWh, b.LossesWh) && sameBits(a.BatteryStartWh, b.BatteryStartWh) &&
+		sameBits(a.BatteryEndWh, b.BatteryEndWh) && sameBits(a.DemandWh, b.DemandWh)
+}
+
+// TestRunDaysInlineMatchesMethods: on random systems (fixed seed, some with
+// odd figures or an odd stored energy), RunDays, which steps a battery that
+// fastBatteryOf accepts inline (fastBattery.day), gives bit for bit the
+// Day records, SOC trace, Ledger and battery state of the same kernel
+// stepping the battery through the battery.Model methods (dayByCalls),
+// over three calls carried over. Both paths run for batteries the inline
+// step accepts and for those it does not (where they must be the same
+// code).
+func TestRunDaysInlineMatchesMethods(t *testing.T) {
+	r := rand.New(rand.NewPCG(23, 2027))
+	eligible, ineligible := 0, 0
+	for trial := 0; trial < 1200; trial++ {
+		d, dm, pv, p, scale, m := randomCase(r, trial%3 == 2)
+		if trial%7 == 3 { // stored energy outside the capacity, or not finite
+			m.EnergyWh = []float64{-100, 1.5 * m.CapacityWh, math.NaN(), math.Inf(1), math.Inf(-1), m.MinWh}[r.IntN(6)]
+		}
+		if _, ok := fastBatteryOf(&m); ok {
+			eligible++
+		} else {
+			ineligible++
+		}
+		mc := m
+		nd := len(dm)
+		days, daysC := make([]Day, nd), make([]Day, nd)
+		soc, socC := make([]float32, 24*nd), make([]float32, 24*nd)
+		var led, ledC Ledger
+		third := nd / 3
+		for _, part := range [][2]int{{0, third}, {third, 2 * third}, {2 * third, nd}} {
+			a, b := part[0], part[1]
+			n := RunDays(pv[24*a:24*b], scale, dm[a:b], &d, &p, &m, &led, days[a:b], soc[24*a:24*b])
+			nc := runDays(pv[24*a:24*b], scale, dm[a:b], &d, &p, &mc, &ledC, daysC[a:b], socC[24*a:24*b], false)
+			if n != nc {
+				t.Fatalf("trial %d: %d days, by methods %d", trial, n, nc)
+			}
+		}
+		if !ledgerSameBits(led, ledC) {
+			t.Fatalf("trial %d: ledger %+v, by methods %+v", trial, led, ledC)
+		}
+		if !sameBits(m.EnergyWh, mc.EnergyWh) || m.Disconnected != mc.Disconnected || m.NonCriticalShed != mc.NonCriticalShed {
+			t.Fatalf("trial %d: battery %+v, by methods %+v", trial, m, mc)
+		}
+		for i := range days {
+			if !daySameBits(days[i], daysC[i]) {
+				t.Fatalf("trial %d day %d: %+v, by methods %+v", trial, i, days[i], daysC[i])
+			}
+		}
+		for i := range soc {
+			if math.Float32bits(soc[i]) != math.Float32bits(socC[i]) && !(soc[i] != soc[i] && socC[i] != socC[i]) {
+				t.Fatalf("trial %d hour %d: SOC %g, by methods %g", trial, i, soc[i], socC[i])
+			}
+		}
+	}
+	if eligible < 400 || ineligible < 100 {
+		t.Fatalf("%d cases took the inline path and %d the methods, want at least 400 and 100", eligible, ineligible)
 	}
 }
