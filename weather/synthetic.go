@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"math/rand/v2"
+
+	"gonum.org/v1/gonum/stat/distuv"
 )
 
 // DefaultLagOneCorrelation is the day-to-day correlation of daily clearness
@@ -142,8 +144,9 @@ func DailyClearness(meanKT [12]float64, opt SyntheticOptions) ([]float64, error)
 	return out, nil
 }
 
-// normalCDF is the standard normal cumulative distribution Φ(z).
-func normalCDF(z float64) float64 { return 0.5 * math.Erfc(-z/math.Sqrt2) }
+// normalCDF is the standard normal cumulative distribution Φ(z), from
+// gonum's distuv (0.5·erfc(−z/√2)).
+func normalCDF(z float64) float64 { return distuv.UnitNormal.CDF(z) }
 
 // shiftToMean sets days[i] = quantile(Φ(zs[i] + δ)) with the one δ that
 // makes the mean of days equal target. The mean rises monotonically with δ,
