@@ -296,10 +296,7 @@ func Init(template, out string, force bool) error {
 	}
 	// Templates sit beside the schema in the source tree; a written starter
 	// points at no schema path that may not exist where it is written.
-	var doc map[string]json.RawMessage
-	if err := json.Unmarshal(b, &doc); err == nil {
-		b = []byte(strings.Replace(string(b), `"$schema": "../schema/project.schema.json",`+"\n  ", "", 1))
-	}
+	b = []byte(strings.Replace(string(b), `"$schema": "../schema/project.schema.json",`+"\n  ", "", 1))
 	if err := AtomicWrite(out, b); err != nil {
 		return fail(ExitFailed, "%w", err)
 	}

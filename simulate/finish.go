@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 
+	"solstand/array"
 	"solstand/caution"
 	"solstand/cost"
 	"solstand/report"
@@ -168,8 +169,8 @@ func (d *run) wiring() error {
 		BlockInternalResistanceOhm: d.block.InternalResistanceMOhm / 1000, BatteryMaxDropPct: *w.BatteryDropPct,
 		BatteryToDCPanelOneWayM: *w.BatteryToPanelM, BranchMaxDropPct: *w.BranchDropPct,
 	}
-	if d.ctrl.Kind.String() == "pwm" {
-		in.PVOperatingV = (d.systemV + d.chargeV) / 2
+	if d.ctrl.Kind == array.PWM {
+		in.PVOperatingV = d.chargingV()
 	}
 	if d.r.Inverter != nil {
 		in.InverterContinuousW = d.r.Inverter.ContinuousW

@@ -33,7 +33,6 @@ func (d *run) size() error {
 	if c.Kind == "pwm" {
 		d.ctrl.Kind = array.PWM
 	}
-	d.ctrl.MaxPVVoltageV = defaultMaxPVV(c.MaxPVVoltageV, c.Kind, 0)
 	a := &p.Array
 	d.derates = array.Derates{SoilingLoss: *a.SoilingLoss, MismatchLoss: *a.MismatchLoss, WiringLoss: *a.WiringLoss,
 		ToleranceLoss: *a.ToleranceLoss, AgeingLossPerYear: *a.AgeingLossPerYear}
@@ -86,7 +85,7 @@ func (d *run) size() error {
 		BatteryChargeEfficiency: d.chem.ChargeEfficiency * d.chem.DischargeEfficiency,
 	}
 	maxCellC := array.CellTempC(d.recordHighC, 1000, d.module.NOCTC)
-	operV := (d.systemV*1.0 + d.chargeV) / 2 // mean battery voltage while charging (common practice)
+	operV := d.chargingV()
 	if d.ctrl.Kind == array.PWM {
 		// The series count does not depend on the power: lay out first.
 		pre, err := array.LayoutStrings(d.module, d.ctrl, d.systemV, d.chargeV, d.recordLowC, maxCellC, d.module.PmaxW)
@@ -247,3 +246,8 @@ func argMin(v []float64) int {
 	}
 	return k
 }
+
+// chargingV is the mean battery voltage while charging, halfway between the
+// nominal and the charging voltage (common practice): where a PWM controller
+// holds the array.
+func (d *run) chargingV() float64 { return (d.systemV + d.chargeV) / 2 }

@@ -17,7 +17,7 @@ func (d *run) pvHours(month0 int, poaH *[24]float64, tempC []float64, out []floa
 	derate := d.derates.Factor(*d.p.Array.DesignAgeYears)
 	pwm := d.ctrl
 	pwm.EfficiencyFraction, pwm.MaxOutputA = 1, 0
-	operV := (d.systemV + d.chargeV) / 2
+	operV := d.chargingV()
 	for h := range 24 {
 		g := poaH[h]
 		if !(g > 0) {
